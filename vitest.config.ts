@@ -18,6 +18,7 @@ export default defineConfig({
           include: ['api/**/*.test.ts', 'test/integration/**/*.test.ts'],
           environment: 'node',
           fileParallelism: false,
+          globalSetup: ['test/support/global-setup.ts'],
           testTimeout: 20000,
           hookTimeout: 30000,
         },

@@ -1,0 +1,86 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import type { Kysely } from 'kysely';
+import type { Logger } from 'pino';
+import { pinoHttp } from 'pino-http';
+import { authOperations } from './auth/auth.openapi';
+import { authRouter } from './auth/auth.router';
+import { authenticate } from './auth/authenticate';
+import type { Config } from './config';
+import type { Database } from './db/database';
+import { healthOperations, healthRouter } from './health/health.router';
+import { errorHandler, notFoundHandler } from './http/error-handler';
+import { buildOpenApiDocument } from './openapi/document';
+import { docsRouter } from './openapi/docs.router';
+import type { Operation } from './openapi/operation';
+import { userOperations } from './users/user.openapi';
+import { userRouter } from './users/user.router';
+
+export interface AppDeps {
+  config: Config;
+  db: Kysely<Database>;
+  logger: Logger;
+  version: string;
+}
+
+export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations];
+
+/** Builds the whole HTTP application; `api/main.ts` only listens. */
+export function createApp({ config, db, logger, version }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.trustProxy) app.set('trust proxy', config.trustProxy);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          baseUri: ["'self'"],
+          scriptSrc: ["'self'"],
+          scriptSrcAttr: ["'none'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          fontSrc: ["'self'", 'data:'],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          formAction: ["'self'"],
+        },
+      },
+      // HSTS only means something over TLS; the local server speaks plain HTTP on loopback.
+      strictTransportSecurity: config.cookieSecure,
+    }),
+  );
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+
+  let document: unknown;
+  const api = express.Router();
+  api.use(express.json({ limit: config.bodyLimit }));
+  api.use(cookieParser());
+  api.use(healthRouter(db, version));
+  api.use(docsRouter(() => (document ??= buildOpenApiDocument(operations, version))));
+  api.use(authenticate(db, config));
+  api.use(authRouter(db, config));
+  api.use(userRouter(db, config));
+  api.use(notFoundHandler);
+  app.use('/api', api);
+
+  const indexFile = path.join(config.staticDir, 'index.html');
+  if (existsSync(indexFile)) {
+    app.use(express.static(config.staticDir, { index: false, maxAge: '1h' }));
+    // History fallback: every other GET is a client-side route of the single-page app.
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(indexFile);
+    });
+  }
+  app.use(notFoundHandler);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,65 @@
+import bcrypt from 'bcryptjs';
+import { Router, type CookieOptions, type Response } from 'express';
+import type { Kysely } from 'kysely';
+import { changePasswordSchema, CSRF_COOKIE, SESSION_COOKIE, signInSchema } from '@shared/contracts/auth';
+import type { Config } from '../config';
+import type { Database } from '../db/database';
+import { badRequest, HttpProblem } from '../http/problem';
+import { parseOrThrow } from '../http/validate';
+import { findUserByEmail, findUserById, toUser, updateUser } from '../users/user.repository';
+import { requireRole } from './authenticate';
+import { passwordProblems } from './password-policy';
+import { issueSession, revokeSession, revokeSessionsOf } from './session.service';
+import { signInLimits } from './sign-in-limits';
+
+// Compared against when the e-mail is unknown, so a wrong address costs as long as a wrong password.
+const UNKNOWN_USER_HASH = bcrypt.hashSync('no account has this password', 10);
+
+export function authRouter(db: Kysely<Database>, config: Config): Router {
+  const router = Router();
+  const cookieBase: CookieOptions = { sameSite: 'strict', secure: config.cookieSecure, path: '/' };
+
+  const clearCookies = (res: Response) => {
+    res.clearCookie(SESSION_COOKIE, { ...cookieBase, httpOnly: true });
+    res.clearCookie(CSRF_COOKIE, cookieBase);
+  };
+
+  router.post('/auth/sign-in', ...signInLimits(config), async (req, res) => {
+    const body = parseOrThrow(signInSchema, req.body, 'body');
+    const user = await findUserByEmail(db, body.email);
+    const passwordOk = await bcrypt.compare(body.password, user?.password_hash ?? UNKNOWN_USER_HASH);
+    if (!user || !passwordOk) throw new HttpProblem(401, 'Sign-in failed', 'The e-mail or the password is wrong.');
+    if (user.disabled) throw new HttpProblem(401, 'Sign-in failed', 'This account is disabled; ask an administrator to enable it.');
+    const session = await issueSession(db, config, user, { userAgent: req.get('user-agent') ?? null, address: req.ip ?? null });
+    const maxAge = config.sessionTtlSeconds * 1000;
+    res.cookie(SESSION_COOKIE, session.token, { ...cookieBase, httpOnly: true, maxAge });
+    res.cookie(CSRF_COOKIE, session.csrfToken, { ...cookieBase, httpOnly: false, maxAge });
+    res.json({ user: toUser(user), token: session.token, expiresAt: session.expiresAt.toISOString() });
+  });
+
+  router.post('/auth/sign-out', requireRole(), async (req, res) => {
+    await revokeSession(db, req.auth!.sessionId);
+    clearCookies(res);
+    res.status(204).end();
+  });
+
+  router.get('/auth/me', requireRole(), (req, res) => {
+    res.json({ user: req.auth!.user });
+  });
+
+  router.post('/auth/password', requireRole(), async (req, res) => {
+    const body = parseOrThrow(changePasswordSchema, req.body, 'body');
+    const user = await findUserById(db, req.auth!.user.id);
+    if (!user || !(await bcrypt.compare(body.currentPassword, user.password_hash))) {
+      throw badRequest('The current password is wrong.', [{ path: 'currentPassword', message: 'Current password is wrong' }]);
+    }
+    const problems = passwordProblems(body.newPassword, user.email, 'newPassword');
+    if (body.newPassword === body.currentPassword) problems.push({ path: 'newPassword', message: 'New password must differ from the current one' });
+    if (problems.length > 0) throw badRequest(`The new password is not accepted: ${problems[0]!.message}.`, problems);
+    await updateUser(db, user.id, { password_hash: await bcrypt.hash(body.newPassword, config.bcryptCost) });
+    await revokeSessionsOf(db, user.id, req.auth!.sessionId);
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,16 @@
+// A throwaway PostgreSQL cluster for the test suites: its own folder, its own port, fsync off.
+import { databaseUrl, removeCluster, startCluster } from '../../tools/db.mjs';
+
+export const TEST_CLUSTER = 'pg-test';
+export const TEST_PGPORT = Number(process.env.TEST_PGPORT ?? 54339);
+export const TEST_DATABASE = 'quietbridge_test';
+
+export function startTestDatabase() {
+  removeCluster({ name: TEST_CLUSTER, port: TEST_PGPORT });
+  startCluster({ name: TEST_CLUSTER, port: TEST_PGPORT, database: TEST_DATABASE, fast: true });
+  return databaseUrl(TEST_PGPORT, TEST_DATABASE);
+}
+
+export function stopTestDatabase() {
+  removeCluster({ name: TEST_CLUSTER, port: TEST_PGPORT });
+}
