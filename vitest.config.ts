@@ -23,6 +23,18 @@ export default defineConfig({
           hookTimeout: 30000,
         },
       },
+      {
+        resolve: { alias: { '@shared': shared } },
+        test: {
+          name: 'e2e',
+          include: ['test/e2e/**/*.e2e.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          globalSetup: ['test/e2e/global-setup.ts'],
+          testTimeout: 60000,
+          hookTimeout: 120000,
+        },
+      },
     ],
   },
 });

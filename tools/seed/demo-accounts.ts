@@ -3,9 +3,10 @@ import type { Kysely } from 'kysely';
 import type { Role } from '@shared/contracts/user';
 import type { Database } from '../../api/db/database';
 import { findUserByEmail, insertUser } from '../../api/users/user.repository';
+import demoPassword from './demo-password.json';
 
-/** The demo password when DEMO_PASSWORD is not set (documented in the README). */
-export const DEFAULT_DEMO_PASSWORD = 'bridge-demo-2026';
+/** The demo password when DEMO_PASSWORD is not set (documented in the README; `npm start` prints it). */
+export const DEFAULT_DEMO_PASSWORD: string = demoPassword.defaultDemoPassword;
 
 export const demoAccounts: ReadonlyArray<{ email: string; displayName: string; role: Role }> = [
   { email: 'admin@example.com', displayName: 'Demo Administrator', role: 'admin' },

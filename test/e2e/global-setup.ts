@@ -1,0 +1,50 @@
+// End-to-end setup: a migrated and seeded throwaway database (or the caller's), and the real server
+// serving the built app on a free loopback port. The suites find it in E2E_BASE_URL.
+import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { fileURLToPath } from 'node:url';
+import { startTestDatabase, stopTestDatabase } from '../support/test-database.mjs';
+import { waitForHealth } from '../../tools/lib/process.mjs';
+
+const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address();
+      probe.close(() => (typeof address === 'object' && address ? resolve(address.port) : reject(new Error('no port'))));
+    });
+  });
+}
+
+export default async function setup(): Promise<() => Promise<void>> {
+  if (!existsSync(`${projectRoot}dist/quietbridge/browser/index.html`)) {
+    throw new Error('The web app is not built: run `npx ng build` first (npm test does it for you).');
+  }
+  const ownCluster = !process.env.TEST_DATABASE_URL;
+  const databaseUrl = process.env.TEST_DATABASE_URL ?? startTestDatabase();
+  const env = { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: 'test', BCRYPT_COST: '10', LOG_LEVEL: 'warn' };
+  for (const script of ['tools/migrate.ts', 'tools/seed.ts']) {
+    execFileSync(process.execPath, ['--import', 'tsx', script], { cwd: projectRoot, env, stdio: 'inherit' });
+  }
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const server: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'api/main.ts'], {
+    cwd: projectRoot,
+    env: { ...env, PORT: String(port), HOST: '127.0.0.1', SESSION_SECRET: 'end-to-end-secret-that-is-long-enough-42' },
+    stdio: 'inherit',
+  });
+  await waitForHealth(baseUrl, server);
+  process.env.E2E_BASE_URL = baseUrl;
+  return async () => {
+    await new Promise<void>((resolve) => {
+      if (server.exitCode !== null) return resolve();
+      server.once('exit', () => resolve());
+      server.kill('SIGTERM');
+    });
+    if (ownCluster) stopTestDatabase();
+  };
+}

@@ -1,0 +1,66 @@
+#!/usr/bin/env node
+// `npm start`: install what is missing, start PostgreSQL on loopback, migrate, seed, build, serve.
+import { readFileSync } from 'node:fs';
+import { ensureDependencies, ng, nodeScript, projectTmpDir, say, startServer, waitForHealth } from './lib/process.mjs';
+
+async function main() {
+  process.env.TMPDIR ??= projectTmpDir();
+  ensureDependencies();
+  const { startCluster, stopCluster } = await import('./db.mjs');
+  const cluster = startCluster();
+  const env = { ...process.env, DATABASE_URL: process.env.DATABASE_URL ?? cluster.url };
+
+  if (nodeScript('tools/migrate.ts', [], env) !== 0) throw new Error('migrations failed');
+  if (nodeScript('tools/seed.ts', [], env) !== 0) throw new Error('seeding the demo failed');
+  say('start', 'building the web app...');
+  if (ng(['build'], env) !== 0) throw new Error('the web app did not build');
+
+  const port = Number(process.env.PORT ?? 4200);
+  const host = process.env.HOST ?? '127.0.0.1';
+  const url = `http://${host}:${port}`;
+  const server = startServer({ ...env, PORT: String(port), HOST: host });
+  let stopping = false;
+  const stop = (code) => {
+    if (stopping) return;
+    stopping = true;
+    server.kill('SIGTERM');
+    server.once('exit', () => {
+      stopCluster();
+      process.exit(code);
+    });
+  };
+  process.on('SIGINT', () => stop(0));
+  process.on('SIGTERM', () => stop(0));
+  server.on('exit', (code) => {
+    if (!stopping) {
+      stopCluster();
+      process.exit(code ?? 1);
+    }
+  });
+
+  await waitForHealth(url, server);
+  const { defaultDemoPassword } = JSON.parse(readFileSync(new URL('./seed/demo-password.json', import.meta.url), 'utf8'));
+  const password = process.env.DEMO_PASSWORD || defaultDemoPassword;
+  process.stdout.write(
+    [
+      '',
+      '  Quietbridge is running.',
+      `  Open            ${url}`,
+      `  API reference   ${url}/api/docs`,
+      `  Database        ${cluster.url} (data in ${cluster.dataDir})`,
+      '',
+      '  Demo accounts (password for all three):',
+      `    admin@example.com      administrator   ${password}`,
+      `    designer@example.com   designer        ${password}`,
+      `    reviewer@example.com   reviewer        ${password}`,
+      '',
+      '  Press Ctrl+C to stop the server and the database.',
+      '',
+    ].join('\n'),
+  );
+}
+
+main().catch((error) => {
+  process.stderr.write(`[start] ${error instanceof Error ? error.message : String(error)}\n`);
+  process.exit(1);
+});
