@@ -1,0 +1,194 @@
+/**
+ * Op-amp style noise with density e^2 (1 + fc / f): a white floor plus 1/f (flicker) noise, sampled
+ * at fs, following the target within 1 dB (design error about +/-0.27 dB) from a chosen lowest
+ * frequency up to fs/2, and flattening below it.
+ *
+ * Method: unit white noise through a shaping filter of interlaced real poles and zeros, one pair
+ * per half decade (the classic rational approximation of a -10 dB/decade slope; see e.g.
+ * J. A. Barnes and D. W. Allan, "A statistical model of flicker noise", Proc. IEEE 54(2), 1966, and
+ * M. S. Keshner, "1/f noise", Proc. IEEE 70(3), 1982), mapped to discrete time by the matched
+ * z-transform and anchored at the Nyquist frequency. The three highest pairs are moved by factors
+ * fitted once (minimax over 1e-5 fs .. fs/2) in tools/reference/fit_flicker_cascade.py, which
+ * straightens the slope where the matched z-transform bends it near fs/2.
+ * Chosen over a bank of independent first-order sources (one Gaussian per sample per section, so
+ * a dozen per sample) and over Kasdin's fractional-differencing FIR (N. J. Kasdin, Proc. IEEE 83(5),
+ * 1995; tens of thousands of taps to reach f0/1000): this needs one Gaussian and one multiply-add
+ * per pole per sample.
+ *
+ * The filter runs in parallel form (partial fractions, all residues positive for interlaced
+ * poles and zeros), whose state starts in its stationary distribution (drawn through the Cholesky
+ * factor of the exact state covariance), so the first sample already has the long-run statistics:
+ * no warm-up transient of the slow poles.
+ */
+import { GaussianSource } from './gaussian';
+import { assertNoiseSpec } from './white-noise';
+import type { Xoshiro128StarStar } from './xoshiro128';
+
+export interface FlickerNoiseSpec {
+  /** White-floor density e [unit/rtHz], e.g. V/rtHz; >= 0. */
+  density: number;
+  /** Flicker corner fc [Hz] where the 1/f part equals the floor; 0 gives white noise only. */
+  corner: number;
+  /** Sample rate fs [Hz]. */
+  sampleRate: number;
+  /** Lowest frequency [Hz] where the 1/f slope must hold (the simulator uses f0 / 1000); 0 < it < fs/2. */
+  lowestFrequency: number;
+}
+
+/** Pole spacing: one pole and one zero per half decade. */
+const STEP = Math.sqrt(10);
+/** Factors on the (pole, zero) frequencies of the three highest pairs; from fit_flicker_cascade.py. */
+const TOP_PAIR_FACTORS: ReadonlyArray<readonly [number, number]> = [
+  [1.016513935674, 30.176373852262],
+  [2.830717230603, 8.803322437185],
+  [0.952466241579, 1.242434866291],
+];
+/** Frequency (in units of fs) where the level is set, and the design's error there [dB]. */
+const REFERENCE_FREQUENCY = 0.5e-3;
+const REFERENCE_ERROR_DB = 0.257298875639;
+/** The lowest pole sits this far below the lowest frequency, so the slope still holds there. */
+const LOW_END_MARGIN = 30;
+
+export class FlickerNoise {
+  /** White-floor RMS per sample [unit]: e sqrt(fs / 2). */
+  readonly whiteStandardDeviation: number;
+  /** Number of poles of the shaping filter. */
+  readonly poleCount: number;
+  private readonly gaussian: GaussianSource;
+  private readonly poles: Float64Array;
+  private readonly residues: Float64Array;
+  private readonly direct: number;
+  private readonly states: Float64Array;
+  private flickerBlock = new Float64Array(0);
+  private whiteBlock = new Float64Array(0);
+
+  constructor(spec: FlickerNoiseSpec, random: Xoshiro128StarStar) {
+    const { density, corner, sampleRate, lowestFrequency } = spec;
+    assertNoiseSpec(density, sampleRate);
+    if (!(corner >= 0) || !Number.isFinite(corner)) throw new RangeError(`Flicker corner must be a finite frequency of at least 0 Hz, got ${corner}`);
+    if (!(lowestFrequency > 0) || !(lowestFrequency < sampleRate / 2)) {
+      throw new RangeError(`Lowest frequency must lie between 0 Hz and half the sample rate (${sampleRate / 2} Hz), got ${lowestFrequency}`);
+    }
+    this.gaussian = new GaussianSource(random);
+    this.whiteStandardDeviation = density * Math.sqrt(sampleRate / 2);
+
+    // Angular frequencies per sample (theta = 2 pi f / fs) of the poles and zeros, from Nyquist down.
+    const lowest = Math.min(lowestFrequency / sampleRate, REFERENCE_FREQUENCY) / LOW_END_MARGIN;
+    const poleTheta: number[] = [];
+    const zeroTheta: number[] = [];
+    for (let k = 0; ; k++) {
+      const [poleFactor, zeroFactor] = TOP_PAIR_FACTORS[k] ?? [1, 1];
+      const zero = 0.5 * Math.pow(STEP, -k);
+      const pole = (zero / Math.sqrt(STEP)) * poleFactor;
+      poleTheta.push(2 * Math.PI * pole);
+      zeroTheta.push(2 * Math.PI * zero * zeroFactor);
+      if (pole <= lowest) break;
+    }
+    const count = poleTheta.length;
+    this.poleCount = count;
+    this.poles = Float64Array.from(poleTheta, (theta) => Math.exp(-theta));
+
+    // Gain: the one-sided flicker density g^2 (2 / fs) |H(f)|^2 meets e^2 fc / f at the reference
+    // frequency, less the design's known error there.
+    const target = (density * density * corner) / (REFERENCE_FREQUENCY * sampleRate);
+    const designed = (2 / sampleRate) * squaredMagnitude(poleTheta, zeroTheta, 2 * Math.PI * REFERENCE_FREQUENCY);
+    const gain = Math.sqrt((target / designed) * Math.pow(10, REFERENCE_ERROR_DB / 10));
+
+    // Partial fractions H = direct + sum r_k / (1 - a_k z^-1); differences of exponentials through
+    // expm1 keep their precision for the poles close to z = 1.
+    const difference = (thetaA: number, thetaB: number): number => -Math.exp(-thetaA) * Math.expm1(thetaA - thetaB);
+    this.residues = new Float64Array(count);
+    for (let k = 0; k < count; k++) {
+      let residue = gain;
+      for (let j = 0; j < count; j++) {
+        // (1 - b_j / a_k) and (1 - a_j / a_k), each written as (a_k - x) / a_k.
+        residue *= difference(poleTheta[k], zeroTheta[j]) / this.poles[k];
+        if (j !== k) residue /= difference(poleTheta[k], poleTheta[j]) / this.poles[k];
+      }
+      this.residues[k] = residue;
+    }
+    let direct = gain;
+    for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - zeroTheta[k]);
+    this.direct = direct;
+
+    // Stationary start: covariance P_ij = r_i r_j / (1 - a_i a_j). The factor L L^T of the matrix
+    // 1 / (1 - a_i a_j) does not depend on the gain (which may be 0); state_i = r_i (L z)_i.
+    const covariance = new Float64Array(count * count);
+    for (let i = 0; i < count; i++) {
+      for (let j = 0; j < count; j++) covariance[i * count + j] = 1 / -Math.expm1(-(poleTheta[i] + poleTheta[j]));
+    }
+    const factor = cholesky(covariance, count);
+    const draws = new Float64Array(count);
+    this.gaussian.fill(draws);
+    this.states = new Float64Array(count);
+    for (let i = 0; i < count; i++) {
+      let value = 0;
+      for (let j = 0; j <= i; j++) value += factor[i * count + j] * draws[j];
+      this.states[i] = this.residues[i] * value;
+    }
+  }
+
+  /** Overwrites out with the next block of noise [unit]. */
+  fill(out: Float64Array): void {
+    out.fill(0);
+    this.addTo(out);
+  }
+
+  /** Adds the next block of noise [unit] to signal, in place. */
+  addTo(signal: Float64Array): void {
+    const length = signal.length;
+    if (this.flickerBlock.length < length) {
+      this.flickerBlock = new Float64Array(length);
+      this.whiteBlock = new Float64Array(length);
+    }
+    const driving = this.flickerBlock.subarray(0, length);
+    const white = this.whiteBlock.subarray(0, length);
+    this.gaussian.fill(driving);
+    this.gaussian.fill(white, this.whiteStandardDeviation);
+    const direct = this.direct;
+    for (let n = 0; n < length; n++) signal[n] += direct * driving[n] + white[n];
+    // One pass per pole, its state in a local.
+    for (let k = 0; k < this.poleCount; k++) {
+      const a = this.poles[k];
+      const r = this.residues[k];
+      let state = this.states[k];
+      for (let n = 0; n < length; n++) {
+        state = a * state + r * driving[n];
+        signal[n] += state;
+      }
+      this.states[k] = state;
+    }
+  }
+}
+
+/** |H(e^{j omega})|^2 of prod (1 - b_k z^-1) / (1 - a_k z^-1), a = exp(-theta_pole), b = exp(-theta_zero). */
+function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: number): number {
+  // |1 - x e^{-j omega}|^2 = (1 - x)^2 + 4 x sin^2(omega / 2), without cancellation for x near 1.
+  const halfSine = Math.sin(omega / 2);
+  const term = (theta: number): number => {
+    const x = Math.exp(-theta);
+    const oneMinusX = -Math.expm1(-theta);
+    return oneMinusX * oneMinusX + 4 * x * halfSine * halfSine;
+  };
+  let value = 1;
+  for (let k = 0; k < poleTheta.length; k++) value *= term(zeroTheta[k]) / term(poleTheta[k]);
+  return value;
+}
+
+/** Lower-triangular L with L L^T = matrix (size x size, row-major). */
+function cholesky(matrix: Float64Array, size: number): Float64Array {
+  const lower = new Float64Array(size * size);
+  for (let i = 0; i < size; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = matrix[i * size + j];
+      for (let k = 0; k < j; k++) sum -= lower[i * size + k] * lower[j * size + k];
+      if (i === j) {
+        if (!(sum > 0)) throw new RangeError('Flicker noise state covariance is not positive definite');
+        lower[i * size + i] = Math.sqrt(sum);
+      } else {
+        lower[i * size + j] = sum / lower[j * size + j];
+      }
+    }
+  }
+  return lower;
+}
