@@ -6,8 +6,13 @@ import { ensureDependencies, ng, nodeScript, projectTmpDir, say, startServer, wa
 async function main() {
   process.env.TMPDIR ??= projectTmpDir();
   ensureDependencies();
-  const { startCluster, stopCluster } = await import('./db.mjs');
-  const cluster = startCluster();
+  const db = await import('./db.mjs');
+  // With DATABASE_URL set the database is someone else's: neither started nor stopped here.
+  const external = Boolean(process.env.DATABASE_URL);
+  const cluster = external ? null : db.startCluster();
+  const stopCluster = () => {
+    if (!external) db.stopCluster();
+  };
   const env = { ...process.env, DATABASE_URL: process.env.DATABASE_URL ?? cluster.url };
 
   if (nodeScript('tools/migrate.ts', [], env) !== 0) throw new Error('migrations failed');
@@ -47,7 +52,7 @@ async function main() {
       '  Quietbridge is running.',
       `  Open            ${url}`,
       `  API reference   ${url}/api/docs`,
-      `  Database        ${cluster.url} (data in ${cluster.dataDir})`,
+      `  Database        ${cluster ? `${cluster.url} (data in ${cluster.dataDir})` : 'DATABASE_URL (external)'}`,
       '',
       '  Demo accounts (password for all three):',
       `    admin@example.com      administrator   ${password}`,
