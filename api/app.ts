@@ -77,7 +77,8 @@ export function createApp({ config, db, logger, version }: AppDeps): Express {
     // History fallback: every other GET is a client-side route of the single-page app.
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(indexFile);
+      // The configured folder is trusted even when its path has a dot folder in it (e.g. a .tmp build).
+      res.sendFile(indexFile, { dotfiles: 'allow' });
     });
   }
   app.use(notFoundHandler);

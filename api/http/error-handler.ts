@@ -11,7 +11,7 @@ function isDatabaseUnavailable(error: unknown): boolean {
   return typeof message === 'string' && /Connection terminated|timeout exceeded when trying to connect/i.test(message);
 }
 
-/** Body-parser errors carry `type` and `status`; they are the client's fault, never a 500. */
+/** Body-parser and file-serving errors carry `status`; they are the client's fault, never a 500. */
 function bodyParserProblem(error: unknown): HttpProblem | null {
   if (!error || typeof error !== 'object') return null;
   const { type, status } = error as { type?: unknown; status?: unknown };
@@ -21,6 +21,9 @@ function bodyParserProblem(error: unknown): HttpProblem | null {
     return new HttpProblem(415, 'Unsupported encoding', 'The request body must be UTF-8 JSON.');
   if (typeof status === 'number' && status >= 400 && status < 500 && typeof type === 'string')
     return new HttpProblem(status, 'Bad request', 'The request body could not be read.');
+  // Other client errors raised inside Express (http-errors marks them `expose`), e.g. a file not found.
+  if (typeof status === 'number' && status >= 400 && status < 500 && (error as { expose?: unknown }).expose === true)
+    return new HttpProblem(status, status === 404 ? 'Not found' : 'Bad request', status === 404 ? 'Nothing here.' : 'The request could not be served.');
   return null;
 }
 
