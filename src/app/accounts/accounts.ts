@@ -94,6 +94,9 @@ export class Accounts {
   protected readonly total = computed(() => (this.list.hasValue() ? this.list.value().total : 0));
   protected readonly loadError = computed(() => (this.list.error() ? problemFrom(this.list.error()).detail : null));
 
+  /** Keeps a row, and the focus inside it, when a saved change replaces its account. */
+  protected readonly trackById = (_index: number, user: User): string => user.id;
+
   constructor() {
     this.search.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
