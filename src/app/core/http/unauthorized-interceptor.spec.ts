@@ -56,6 +56,17 @@ describe('unauthorizedInterceptor', () => {
     expect(forgetUser).toHaveBeenCalled();
   });
 
+  it('should keep the return address when a second request is refused after the first', async () => {
+    const slow = firstValueFrom(http.get('/api/users?page=1')).catch((error: HttpErrorResponse) => error);
+    await answer('/api/users', 401);
+    backend
+      .expectOne('/api/users?page=1')
+      .flush({ status: 401, title: 'Unauthorized', detail: 'Sign in first.', errors: [] }, { status: 401, statusText: 'Unauthorized' });
+    await slow;
+    await new Promise((resolve) => setTimeout(resolve));
+    expect(router.url).toBe('/sign-in?returnUrl=%2Faccounts%3Fpage%3D2');
+  });
+
   it('should still hand the error to the caller', async () => {
     const error = await answer('/api/users', 401);
     expect(error.status).toBe(401);

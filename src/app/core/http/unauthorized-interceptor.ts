@@ -23,9 +23,11 @@ export const unauthorizedInterceptor: HttpInterceptorFn = (request, next) => {
         !ANSWERED_BY_CALLER.includes(path)
       ) {
         auth.forgetUser();
-        // During a navigation the user was on their way to its target; come back there.
-        const where = router.currentNavigation()?.finalUrl ?? router.parseUrl(router.url);
-        void router.navigateByUrl(signInUrl(router, router.serializeUrl(where)));
+        // During a navigation the user was on their way to its target; come back there. When that
+        // target is already the sign-in page (several requests failed at once), it keeps its returnUrl.
+        const target = router.currentNavigation()?.finalUrl;
+        const where = target ? router.serializeUrl(target) : router.url;
+        if (!where.startsWith('/sign-in')) void router.navigateByUrl(signInUrl(router, where));
       }
       return throwError(() => error);
     }),
