@@ -16,6 +16,8 @@ import { errorHandler, notFoundHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/document';
 import { docsRouter } from './openapi/docs.router';
 import type { Operation } from './openapi/operation';
+import { designOperations } from './designs/design.openapi';
+import { designRouter } from './designs/design.router';
 import { userOperations } from './users/user.openapi';
 import { userRouter } from './users/user.router';
 
@@ -26,7 +28,7 @@ export interface AppDeps {
   version: string;
 }
 
-export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations];
+export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations];
 
 /** Builds the whole HTTP application; `api/main.ts` only listens. */
 export function createApp({ config, db, logger, version }: AppDeps): Express {
@@ -68,6 +70,7 @@ export function createApp({ config, db, logger, version }: AppDeps): Express {
   api.use(authenticate(db, config));
   api.use(authRouter(db, config));
   api.use(userRouter(db, config));
+  api.use(designRouter(db, version));
   api.use(notFoundHandler);
   app.use('/api', api);
 

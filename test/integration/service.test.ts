@@ -42,7 +42,20 @@ describe('API documentation', () => {
     const response = await request(app).get('/api/openapi.json');
     expect(response.status).toBe(200);
     expect(response.body.openapi).toBe('3.1.0');
-    expect(Object.keys(response.body.paths).sort()).toEqual(['/api/auth/me', '/api/auth/password', '/api/auth/sign-in', '/api/auth/sign-out', '/api/health', '/api/users', '/api/users/{id}']);
+    expect(Object.keys(response.body.paths).sort()).toEqual([
+      '/api/auth/me',
+      '/api/auth/password',
+      '/api/auth/sign-in',
+      '/api/auth/sign-out',
+      '/api/designs',
+      '/api/designs/{id}',
+      '/api/designs/{id}/versions',
+      '/api/designs/{id}/versions/{number}',
+      '/api/health',
+      '/api/users',
+      '/api/users/{id}',
+    ]);
+    expect(response.body.components.schemas.Design).toBeDefined();
     const createUser = response.body.components.schemas.CreateUser;
     expect(createUser.properties.password.minLength).toBe(10);
     expect(createUser.required).toEqual(expect.arrayContaining(['email', 'displayName', 'role', 'password']));

@@ -15,7 +15,7 @@ export function createTestApp(overrides: Partial<Config> = {}) {
   const url = process.env.TEST_DATABASE_URL;
   if (!url) throw new Error('TEST_DATABASE_URL is not set: run the API suites through vitest (global setup starts the database)');
   const config: Config = {
-    ...loadConfig({ NODE_ENV: 'test', SESSION_SECRET: 'test-secret-that-is-long-enough-0123456789', BCRYPT_COST: '10', DATABASE_URL: url }),
+    ...loadConfig({ NODE_ENV: 'test', SESSION_SECRET: 'test-secret-that-is-long-enough-0123456789', BCRYPT_COST: '10', DATABASE_URL: url, SIGN_IN_LIMIT_PER_ADDRESS: '10000', SIGN_IN_LIMIT_PER_ACCOUNT: '10000' }),
     staticDir: 'no-static-dir-in-api-tests',
     ...overrides,
   };

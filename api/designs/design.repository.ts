@@ -1,0 +1,214 @@
+import { sql, type Kysely, type Transaction } from 'kysely';
+import type { z } from 'zod';
+import type { DesignSummary, KeyFigures, listDesignsQuerySchema, Version, VersionSummary } from '@shared/contracts/designs-api';
+import type { Database } from '../db/database';
+
+type Db = Kysely<Database> | Transaction<Database>;
+
+/** Who may see which designs: admins all, designers their own, everyone else none (yet). */
+export interface DesignScope {
+  userId: string;
+  seesAll: boolean;
+  seesOwn: boolean;
+}
+
+const sortColumns = {
+  name: 'designs.name',
+  updatedAt: 'designs.updated_at',
+  createdAt: 'designs.created_at',
+  latestVersion: 'designs.latest_version',
+} as const;
+
+function iso(value: Date | string): string {
+  return new Date(value).toISOString();
+}
+
+/** Designs joined with their owner and their latest version's summary and author. */
+function summaries(db: Db) {
+  return db
+    .selectFrom('designs')
+    .innerJoin('users as owner', 'owner.id', 'designs.owner_id')
+    .innerJoin('design_versions as latest', (join) =>
+      join.onRef('latest.design_id', '=', 'designs.id').onRef('latest.number', '=', 'designs.latest_version'),
+    )
+    .innerJoin('users as author', 'author.id', 'latest.author_id')
+    .select([
+      'designs.id',
+      'designs.name',
+      'designs.archived',
+      'designs.latest_version',
+      'designs.created_at',
+      'designs.updated_at',
+      'owner.id as owner_id',
+      'owner.display_name as owner_name',
+      'owner.email as owner_email',
+      'latest.message',
+      'latest.created_at as version_created_at',
+      'latest.format_version',
+      'latest.engine_version',
+      'latest.figures',
+      'author.id as author_id',
+      'author.display_name as author_name',
+      'author.email as author_email',
+    ]);
+}
+
+type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaries>['executeTakeFirstOrThrow']>>;
+
+function toSummary(row: SummaryRow): DesignSummary {
+  return {
+    id: row.id,
+    name: row.name,
+    owner: { id: row.owner_id, displayName: row.owner_name, email: row.owner_email },
+    archived: row.archived,
+    latestVersion: row.latest_version,
+    createdAt: iso(row.created_at),
+    updatedAt: iso(row.updated_at),
+    latest: {
+      number: row.latest_version,
+      message: row.message,
+      author: { id: row.author_id, displayName: row.author_name, email: row.author_email },
+      createdAt: iso(row.version_created_at),
+      formatVersion: row.format_version,
+      engineVersion: row.engine_version,
+      figures: row.figures,
+    },
+  };
+}
+
+function scoped(query: ReturnType<typeof summaries>, scope: DesignScope) {
+  if (scope.seesAll) return query;
+  if (scope.seesOwn) return query.where('designs.owner_id', '=', scope.userId);
+  return query.where(sql<boolean>`false`);
+}
+
+export async function listDesigns(db: Db, scope: DesignScope, query: z.output<typeof listDesignsQuerySchema>) {
+  let base = scoped(summaries(db), scope);
+  if (query.archived !== 'all') base = base.where('designs.archived', '=', query.archived === 'true');
+  if (query.q) {
+    const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    base = base.where('designs.name', 'ilike', pattern);
+  }
+  const [rows, count] = await Promise.all([
+    base
+      .orderBy(sortColumns[query.sort], query.order)
+      .orderBy('designs.id')
+      .limit(query.pageSize)
+      .offset(query.page * query.pageSize)
+      .execute(),
+    base.clearSelect().select((eb) => eb.fn.countAll<string>().as('count')).executeTakeFirstOrThrow(),
+  ]);
+  return { items: rows.map(toSummary), total: Number(count.count) };
+}
+
+export async function findDesign(db: Db, scope: DesignScope, id: string): Promise<DesignSummary | undefined> {
+  const row = await scoped(summaries(db), scope).where('designs.id', '=', id).executeTakeFirst();
+  return row ? toSummary(row) : undefined;
+}
+
+export interface NewVersion {
+  document: Record<string, unknown>;
+  message: string;
+  authorId: string;
+  formatVersion: number;
+  engineVersion: string;
+  figures: KeyFigures;
+}
+
+export async function insertDesign(db: Kysely<Database>, ownerId: string, name: string, first: NewVersion): Promise<string> {
+  return db.transaction().execute(async (trx) => {
+    const design = await trx
+      .insertInto('designs')
+      .values({ owner_id: ownerId, name, latest_version: 1 })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await insertVersionRow(trx, design.id, 1, first);
+    return design.id;
+  });
+}
+
+async function insertVersionRow(trx: Transaction<Database>, designId: string, number: number, version: NewVersion) {
+  await trx
+    .insertInto('design_versions')
+    .values({
+      design_id: designId,
+      number,
+      document: JSON.stringify(version.document),
+      message: version.message,
+      author_id: version.authorId,
+      format_version: version.formatVersion,
+      engine_version: version.engineVersion,
+      figures: JSON.stringify(version.figures),
+    })
+    .execute();
+}
+
+export type SaveOutcome = { saved: true; number: number } | { saved: false; latestVersion: number };
+
+/**
+ * Appends a version when `baseVersion` is still the latest. The design row is locked for the
+ * transaction, so concurrent saves on the same base get exactly one winner and gapless numbers.
+ */
+export async function appendVersion(db: Kysely<Database>, designId: string, baseVersion: number, version: NewVersion): Promise<SaveOutcome> {
+  return db.transaction().execute(async (trx) => {
+    const design = await trx.selectFrom('designs').select('latest_version').where('id', '=', designId).forUpdate().executeTakeFirstOrThrow();
+    if (design.latest_version !== baseVersion) return { saved: false, latestVersion: design.latest_version };
+    const number = design.latest_version + 1;
+    await insertVersionRow(trx, designId, number, version);
+    await trx.updateTable('designs').set({ latest_version: number, updated_at: sql`now()` }).where('id', '=', designId).execute();
+    return { saved: true, number };
+  });
+}
+
+export async function updateDesign(db: Db, id: string, changes: { name?: string; archived?: boolean }): Promise<void> {
+  await db
+    .updateTable('designs')
+    .set({ ...changes, updated_at: sql`now()` })
+    .where('id', '=', id)
+    .execute();
+}
+
+function versionQuery(db: Db, designId: string) {
+  return db
+    .selectFrom('design_versions')
+    .innerJoin('users as author', 'author.id', 'design_versions.author_id')
+    .where('design_versions.design_id', '=', designId)
+    .select([
+      'design_versions.number',
+      'design_versions.message',
+      'design_versions.created_at',
+      'design_versions.format_version',
+      'design_versions.engine_version',
+      'design_versions.figures',
+      'author.id as author_id',
+      'author.display_name as author_name',
+      'author.email as author_email',
+    ]);
+}
+
+type VersionRow = Awaited<ReturnType<ReturnType<typeof versionQuery>['executeTakeFirstOrThrow']>>;
+
+function toVersionSummary(row: VersionRow): VersionSummary {
+  return {
+    number: row.number,
+    message: row.message,
+    author: { id: row.author_id, displayName: row.author_name, email: row.author_email },
+    createdAt: iso(row.created_at),
+    formatVersion: row.format_version,
+    engineVersion: row.engine_version,
+    figures: row.figures,
+  };
+}
+
+export async function listVersions(db: Db, designId: string): Promise<VersionSummary[]> {
+  const rows = await versionQuery(db, designId).orderBy('design_versions.number', 'desc').execute();
+  return rows.map(toVersionSummary);
+}
+
+export async function findVersion(db: Db, designId: string, number: number): Promise<Version | undefined> {
+  const row = await versionQuery(db, designId)
+    .select('design_versions.document')
+    .where('design_versions.number', '=', number)
+    .executeTakeFirst();
+  return row ? { ...toVersionSummary(row), designId, document: row.document } : undefined;
+}
