@@ -53,6 +53,11 @@ export function userRouter(db: Kysely<Database>, config: Config): Router {
     const body = parseOrThrow(updateUserSchema, req.body, 'body');
     const existing = await findUserById(db, id);
     if (!existing) throw notFound('No account with this id.');
+    if (id === req.auth!.user.id && (body.disabled === true || (body.role !== undefined && body.role !== 'admin'))) {
+      throw conflict('You cannot disable your own account or take away your own administrator role; ask another administrator.', [
+        { path: body.disabled === true ? 'disabled' : 'role', message: 'Not on your own account' },
+      ]);
+    }
     const losesAdmin = existing.role === 'admin' && !existing.disabled && ((body.role && body.role !== 'admin') || body.disabled === true);
     if (losesAdmin && (await countEnabledAdmins(db, id)) === 0) {
       throw conflict('This is the last enabled administrator; make another account an administrator first.', [

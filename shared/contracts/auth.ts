@@ -1,12 +1,7 @@
 import { z } from 'zod';
 import { passwordSchema, requiredText, userSchema } from './user';
 
-/** Name of the httpOnly session cookie holding the JWT. */
-export const SESSION_COOKIE = 'qb_session';
-/** Name of the readable cookie holding the CSRF token (double-submit). */
-export const CSRF_COOKIE = 'qb_csrf';
-/** Header a cookie-authenticated state-changing request must carry, equal to the CSRF cookie. */
-export const CSRF_HEADER = 'X-CSRF-Token';
+export { CSRF_COOKIE, CSRF_HEADER, SESSION_COOKIE } from './constants';
 
 export const signInSchema = z
   .object({

@@ -1,15 +1,15 @@
 import { z } from 'zod';
+import { PASSWORD_MIN_LENGTH, roles } from './constants';
 
 /** A message for a missing value apart from one for a value of the wrong type. */
 export function requiredText(label: string) {
   return { error: (issue: { input?: unknown }) => (issue.input === undefined ? `${label} is required` : `${label} must be text`) };
 }
 
-export const roles = ['admin', 'designer', 'reviewer'] as const;
+export { PASSWORD_MIN_LENGTH, roles };
 export const roleSchema = z.enum(roles, { error: 'Role must be one of admin, designer, reviewer' }).describe('admin manages accounts; designer builds designs; reviewer reviews shared versions');
 export type Role = z.infer<typeof roleSchema>;
 
-export const PASSWORD_MIN_LENGTH = 10;
 
 export const emailSchema = z
   .string(requiredText('E-mail'))

@@ -3,7 +3,7 @@ import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@ang
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { routes } from './app.routes';
 import { AuthService } from './core/auth/auth-service';
-import { CSRF_COOKIE_NAME, CSRF_HEADER_NAME } from './core/http/csrf';
+import { CSRF_COOKIE, CSRF_HEADER } from '@shared/contracts/constants';
 import { unauthorizedInterceptor } from './core/http/unauthorized-interceptor';
 
 // Angular 21 bootstraps zoneless by default; no zone.js polyfill and no provider needed.
@@ -13,7 +13,7 @@ export const appConfig: ApplicationConfig = {
     provideRouter(routes, withComponentInputBinding()),
     provideHttpClient(
       withInterceptors([unauthorizedInterceptor]),
-      withXsrfConfiguration({ cookieName: CSRF_COOKIE_NAME, headerName: CSRF_HEADER_NAME }),
+      withXsrfConfiguration({ cookieName: CSRF_COOKIE, headerName: CSRF_HEADER }),
     ),
     // Guards read the signed-in user synchronously, so learn it before the first navigation.
     provideAppInitializer(() => inject(AuthService).loadCurrentUser()),

@@ -100,6 +100,12 @@ describe('accounts (admin routes)', () => {
   });
 
   it('keeps the last enabled administrator, and answers 404 or 400 for unknown or malformed ids', async () => {
+    const second = await createAccount(testApp, 'admin');
+    const secondAuth = { Authorization: `Bearer ${(await signIn(testApp, second.email)).token}` };
+    const self = await request(app).patch(`/api/users/${second.id}`).set(secondAuth).send({ disabled: true });
+    expect(self.status).toBe(409);
+    expect(self.body.errors[0]).toEqual({ path: 'disabled', message: 'Not on your own account' });
+    await request(app).patch(`/api/users/${second.id}`).set(adminAuth).send({ role: 'designer' });
     const demote = await request(app).patch(`/api/users/${adminId}`).set(adminAuth).send({ role: 'designer' });
     expect(demote.status).toBe(409);
     expect(demote.body.errors[0].path).toBe('role');

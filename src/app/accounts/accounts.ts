@@ -29,7 +29,7 @@ import {
 import type { Role, UpdateUser, User } from '@shared/contracts/user';
 import { debounceTime, distinctUntilChanged } from 'rxjs';
 import { AuthService } from '../core/auth/auth-service';
-import { ROLES } from '../core/forms/account-rules';
+import { roles as ROLES } from '@shared/contracts/constants';
 import { problemFrom } from '../core/http/api-problem';
 import { CreateAccountDialog } from './create-account-dialog';
 import { UserListQuery, UserSortKey, UsersApi } from './users-api';

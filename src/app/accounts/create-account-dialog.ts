@@ -8,7 +8,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { Role, User } from '@shared/contracts/user';
 import { finalize } from 'rxjs';
-import { PASSWORD_MIN_LENGTH, ROLES } from '../core/forms/account-rules';
+import { PASSWORD_MIN_LENGTH, roles as ROLES } from '@shared/contracts/constants';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
 import { UsersApi } from './users-api';

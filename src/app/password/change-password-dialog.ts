@@ -8,7 +8,7 @@ import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { finalize } from 'rxjs';
 import { AuthService } from '../core/auth/auth-service';
-import { PASSWORD_MIN_LENGTH } from '../core/forms/account-rules';
+import { PASSWORD_MIN_LENGTH } from '@shared/contracts/constants';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
 
