@@ -9,6 +9,7 @@ import { prepareSensor } from '../stages/sensor';
 import type { PreparedStage, StageCheckView, StageContext } from '../stages/stage';
 import { carrierHarmonics, KEPT_HARMONICS, MAX_DEMODULATOR_HARMONICS } from './carrier-harmonics';
 import { levelFindings, nodeLevel } from './levels';
+import { referToInput } from './input-referred';
 import { integrateNoise, MAX_FOLDED_HARMONICS, type PlacedSource } from './noise-integration';
 import { rippleComponents } from './ripple';
 import { stepResponseMetrics } from './step-response';
@@ -120,14 +121,7 @@ export function evaluateBudget(design: Design, options: BudgetOptions = {}): Bud
   for (let s = 0; s < noise.power.length; s++) totalPower += noise.power[s];
   const outputRms = Math.sqrt(totalPower);
 
-  const perUnit = (rms: number) => {
-    const farad = sensitive && voltsPerFarad !== 0 ? rms / Math.abs(voltsPerFarad) : null;
-    return {
-      farad,
-      pascal: farad !== null && pressureSlope !== 0 ? farad / Math.abs(pressureSlope) : null,
-      cubicMetrePerSecond: flow && farad !== null && measurandSlope !== 0 ? farad / Math.abs(measurandSlope) : null,
-    };
-  };
+  const perUnit = (rms: number) => referToInput(rms, sensitive ? voltsPerFarad : 0, pressureSlope, flow ? measurandSlope : null);
   const contributions = placed.map((p, s) => ({
     stage: p.stage,
     source: p.source.source,

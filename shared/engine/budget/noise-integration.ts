@@ -1,5 +1,5 @@
 import type { NoiseSource, PreparedStage } from '../stages/stage';
-import { logFrequencyGrid } from './frequency-grid';
+import { integrateSegment, logFrequencyGrid } from './frequency-grid';
 import { SERIES_TOLERANCE } from './carrier-harmonics';
 
 /** Most odd harmonics summed in the noise folding. */
@@ -68,7 +68,7 @@ export function integrateNoise(
   const atHarmonic = new Float64Array(MAX_FOLDED_HARMONICS * nCarrier);
   let harmonics = 0;
   let folded = 0;
-  let previous = 0;
+  let previousTerm = 0;
   for (let h = 0; h < MAX_FOLDED_HARMONICS; h++) {
     const k = 2 * h + 1;
     carrierDensities(k * carrier, atHarmonic, h * nCarrier);
@@ -79,29 +79,26 @@ export function integrateNoise(
     harmonics = h + 1;
     if (h >= 2) {
       // Local power law term ~ k^-a: the rest sums to about term * k / (2 (a - 1)).
-      const decay = previous > 0 && term > 0 ? Math.log(previous / term) / Math.log(k / (k - 2)) : Infinity;
+      const decay = previousTerm > 0 && term > 0 ? Math.log(previousTerm / term) / Math.log(k / (k - 2)) : term === 0 ? Infinity : 0;
       const tail = decay > 1.2 ? (term * k) / (2 * (decay - 1)) : Infinity;
       if (term === 0 || tail < SERIES_TOLERANCE * folded) break;
     }
-    previous = term;
+    previousTerm = term;
   }
 
   const scratch = new Float64Array(nCarrier);
   const foldedAt = new Float64Array(nCarrier);
-  const contribution = new Float64Array(sources.length);
-  let belowSplit = 0;
-  let aboveSplit = 0;
-  let enbw = 0;
+  const nSources = sources.length;
+  // S(f) * f of every source at every grid point, and |H_bb / H_bb(0)|^2 * f in the last column.
+  const columns = nSources + 1;
+  const values = new Float64Array(grid.frequency.length * columns);
   const dcBaseband = basebandPower(post, postGain2, 0);
   for (let i = 0; i < grid.frequency.length; i++) {
     const f = grid.frequency[i];
-    const wBelow = grid.weightBelow[i];
-    const wAbove = grid.weightAbove[i];
+    const row = i * columns;
     postSuffix[nPost] = 1;
     for (let j = nPost - 1; j >= 0; j--) postSuffix[j] = postSuffix[j + 1] * post[j].responsePower(f) * postGain2[j];
     const baseband = postSuffix[0];
-    if (dcBaseband > 0) enbw += (wBelow + wAbove) * (baseband / dcBaseband);
-    contribution.fill(0);
     if (nCarrier > 0 && baseband > 0) {
       foldedAt.fill(0);
       for (let h = 0; h < harmonics; h++) {
@@ -116,18 +113,25 @@ export function integrateNoise(
         carrierDensities(k * carrier + f, scratch, 0);
         for (let c = 0; c < nCarrier; c++) foldedAt[c] += weight * scratch[c];
       }
-      for (let c = 0; c < nCarrier; c++) contribution[carrierIndex[c]] = foldedAt[c] * baseband;
+      for (let c = 0; c < nCarrier; c++) values[row + carrierIndex[c]] = foldedAt[c] * baseband * f;
     }
     for (const { s, i: index } of basebandSources) {
-      contribution[index] = (s.source.density as (f: number) => number)(f) * postSuffix[s.stageIndex + 1];
+      values[row + index] = (s.source.density as (f: number) => number)(f) * postSuffix[s.stageIndex + 1] * f;
     }
-    for (let s = 0; s < sources.length; s++) {
-      const p = contribution[s];
-      power[s] += (wBelow + wAbove) * p;
-      belowSplit += wBelow * p;
-      aboveSplit += wAbove * p;
-    }
+    values[row + nSources] = dcBaseband > 0 ? (baseband / dcBaseband) * f : 0;
   }
+  let belowSplit = 0;
+  let aboveSplit = 0;
+  let enbw = 0;
+  grid.segments.forEach((segment, index) => {
+    for (let s = 0; s < nSources; s++) {
+      const p = integrateSegment(segment, values, columns, s);
+      power[s] += p;
+      if (index < grid.firstAboveSplit) belowSplit += p;
+      else aboveSplit += p;
+    }
+    enbw += integrateSegment(segment, values, columns, nSources);
+  });
   sources.forEach((placed, index) => {
     if (placed.source.bandPower === undefined) return;
     const p = placed.source.bandPower(low, high);
