@@ -80,8 +80,8 @@ function chainSchema(registry: StageRegistry) {
 export function createDesignSchema(registry: StageRegistry) {
   return z
     .object({
-      format: z.literal(DESIGN_FORMAT, { error: `Format must be "${DESIGN_FORMAT}"` }),
-      version: z.literal(DESIGN_FORMAT_VERSION, { error: `Version must be ${DESIGN_FORMAT_VERSION}` }),
+      format: z.literal(DESIGN_FORMAT, { error: `Format must be "${DESIGN_FORMAT}"` }).describe('Identifies a Quietbridge design document'),
+      version: z.literal(DESIGN_FORMAT_VERSION, { error: `Version must be ${DESIGN_FORMAT_VERSION}` }).describe('Format version of this document; older versions are upgraded on load'),
       name: z.string({ error: 'Name must be text' }).trim().min(1, 'Name is required').max(200, 'Name must be at most 200 characters'),
       notes: z.string({ error: 'Notes must be text' }).max(20000, 'Notes must be at most 20000 characters').default(''),
       environment: environmentSchema.default({ temperature: 300 }),

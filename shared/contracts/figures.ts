@@ -38,8 +38,8 @@ export const budgetSchema = z
   .object({
     mode: z.enum(['pressure', 'flow']),
     sensitivity: z.object({
-      voltsPerFarad: optionalFigure('Output per differential capacitance S_C = (Vm/Cf) G_pre D G_post [V/F]'),
-      voltsPerPascal: optionalFigure('Output per pascal on cell A at the operating point [V/Pa]'),
+      voltsPerFarad: figure('Output per differential capacitance S_C = (Vm/Cf) G_pre D G_post [V/F]'),
+      voltsPerPascal: figure('Output per pascal on cell A at the operating point [V/Pa]'),
       voltsPerCubicMetrePerSecond: optionalFigure('Output per volume flow at the operating point [V s/m^3]'),
     }),
     demodulatorGain: figure('D: DC gain of the switching demodulator for the square-wave carrier through the pre-demodulator chain [1]'),

@@ -16,6 +16,8 @@ export type DemodulatorStage = z.infer<typeof demodulatorSchema>;
 
 /** A reference phase costing more than 2 % of the best gain is worth a note. */
 const PHASE_LOSS = 0.98;
+/** Below 5 % of the best gain the chain has practically no sensitivity. */
+const NO_GAIN = 0.05;
 
 export const demodulatorModule: StageModule<DemodulatorStage> = {
   kind: 'demodulator',
@@ -43,8 +45,8 @@ export const demodulatorModule: StageModule<DemodulatorStage> = {
       findings(view) {
         const out: Finding[] = [];
         const numbers = [number('demodulator gain', view.demodulatorGain, ''), number('best gain', view.bestDemodulatorGain, ''), number('best phase', view.bestPhase, 'deg')];
-        if (Math.abs(view.demodulatorGain) < 1e-6 * Math.abs(view.bestDemodulatorGain) || view.demodulatorGain === 0) {
-          out.push(finding('error', 'demodulator-no-gain', target, 'phase', 'At this reference phase the demodulator gives no output for the signal: sensitivity and resolution are undefined', numbers, `set the phase to ${digits(view.bestPhase)} deg`));
+        if (Math.abs(view.demodulatorGain) < NO_GAIN * view.bestDemodulatorGain) {
+          out.push(finding('error', 'demodulator-no-gain', target, 'phase', `At this reference phase the demodulator keeps under ${NO_GAIN * 100} % of its best gain: the signal is all but lost`, numbers, `set the phase to ${digits(view.bestPhase)} deg`));
         } else if (Math.abs(view.demodulatorGain) < PHASE_LOSS * view.bestDemodulatorGain) {
           out.push(finding('note', 'demodulator-phase', target, 'phase', `The reference phase keeps ${digits((Math.abs(view.demodulatorGain) / view.bestDemodulatorGain) * 100)} % of the best demodulator gain`, numbers, `set the phase to ${digits(view.bestPhase)} deg`));
         }
