@@ -60,7 +60,7 @@ describe('stage registry', () => {
         findings: () => [],
       }),
     };
-    const registry = createStageRegistry([...stageRegistry.modules, attenuator as unknown as StageModule]);
+    const registry = createStageRegistry([...stageRegistry.modules, attenuator]);
     const document = demoDocument();
     document.chain.splice(2, 0, { id: 'att', kind: 'attenuator', ratio: 0.5 });
     const withIt = analyseDesign(document, registry);

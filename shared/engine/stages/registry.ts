@@ -13,8 +13,8 @@ export interface StageRegistry {
   get(kind: string): StageModule | undefined;
 }
 
-export function createStageRegistry(modules: readonly StageModule<never>[]): StageRegistry {
-  const byKind = new Map<string, StageModule>(modules.map((m) => [m.kind, m as unknown as StageModule]));
+export function createStageRegistry(modules: readonly StageModule[]): StageRegistry {
+  const byKind = new Map<string, StageModule>(modules.map((m) => [m.kind, m]));
   return { kinds: [...byKind.keys()], modules: [...byKind.values()], get: (kind) => byKind.get(kind) };
 }
 
@@ -25,4 +25,4 @@ export const stageRegistry = createStageRegistry([
   demodulatorModule,
   lowPassModule,
   adcModule,
-] as unknown as StageModule<never>[]);
+]);
