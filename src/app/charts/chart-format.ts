@@ -1,0 +1,11 @@
+import { format } from 'd3';
+
+/** Tick labels with SI prefixes ("2.5k", "300µ"), three significant digits at most. */
+export const siTick = format('.3~s');
+
+/** A value read off a cursor: four significant digits with an SI prefix and the unit, if any. */
+export function cursorValue(value: number, unit: string): string {
+  if (!Number.isFinite(value)) return '-';
+  const text = format('.4~s')(value);
+  return unit === '' ? text : `${text} ${unit}`;
+}
