@@ -1,13 +1,154 @@
-import { TestBed } from '@angular/core/testing';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
+import { ComponentFixture, TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatSortHarness } from '@angular/material/sort/testing';
+import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
+import type { DesignList, DesignSummary, KeyFigures } from '@shared/contracts/designs-api';
 import { Designs } from './designs';
 
+const person = { id: '00000000-0000-4000-8000-000000000002', displayName: 'Demo Designer', email: 'designer@example.com' };
+
+function figures(overrides: Partial<KeyFigures>): KeyFigures {
+  return {
+    voltsPerFarad: 3.79e13,
+    resolution: { farad: 1.94e-18, pascal: 6.48, cubicMetrePerSecond: null, bandLow: 0.1, bandHigh: 15800 },
+    outputNoiseRms: 7.37e-5,
+    worstHeadroom: { node: 'adc', usedFraction: 0.268 },
+    ripplePeak: 3.8e-6,
+    findings: { error: 0, warning: 0, note: 0 },
+    ...overrides,
+  };
+}
+
+function design(n: number, name: string, keyFigures: KeyFigures, archived = false): DesignSummary {
+  const id = `00000000-0000-4000-9000-${String(n).padStart(12, '0')}`;
+  return {
+    id,
+    name,
+    owner: person,
+    archived,
+    latestVersion: n + 2,
+    createdAt: '2026-11-02T09:00:00.000Z',
+    updatedAt: `2026-11-0${n}T10:30:00.000Z`,
+    latest: {
+      number: n + 2,
+      message: 'Lower the low-pass corner',
+      author: person,
+      createdAt: `2026-11-0${n}T10:30:00.000Z`,
+      formatVersion: 1,
+      engineVersion: '0.1.0',
+      figures: keyFigures,
+    },
+  };
+}
+
+const answer: DesignList = {
+  items: [
+    design(1, 'Line sensor, pressure', figures({ findings: { error: 1, warning: 2, note: 0 } })),
+    design(
+      2,
+      'Line sensor, flow',
+      figures({
+        resolution: { farad: 1.2e-18, pascal: 3.99, cubicMetrePerSecond: 7.82e-12, bandLow: 0.1, bandHigh: 6300 },
+        worstHeadroom: { node: 'g1', usedFraction: 1.25 },
+      }),
+    ),
+  ],
+  total: 2,
+  page: 0,
+  pageSize: 20,
+};
+
 describe('Designs', () => {
-  it('should say that there are no designs yet and that the workbench is coming', async () => {
-    const fixture = TestBed.createComponent(Designs);
+  let fixture: ComponentFixture<Designs>;
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      imports: [Designs],
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    http = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(Designs);
+  });
+
+  afterEach(() => http.verify());
+
+  async function nextList(): Promise<TestRequest> {
+    for (let attempt = 0; attempt < 200; attempt++) {
+      const [request] = http.match((candidate) => candidate.method === 'GET' && candidate.url === '/api/designs');
+      if (request) return request;
+      await new Promise((resolve) => setTimeout(resolve, 10));
+    }
+    throw new Error('the page sent no GET /api/designs');
+  }
+
+  function params(request: TestRequest): Record<string, string | null> {
+    const all = request.request.params;
+    return Object.fromEntries(all.keys().map((key) => [key, all.get(key)]));
+  }
+
+  function rows(): HTMLElement[] {
+    return Array.from((fixture.nativeElement as HTMLElement).querySelectorAll<HTMLElement>('tr.mat-mdc-row:not(.no-data)'));
+  }
+
+  it('should ask for the active designs, most recently changed first', async () => {
+    const request = await nextList();
+    expect(params(request)).toEqual({ page: '0', pageSize: '20', sort: 'updatedAt', order: 'desc', archived: 'false' });
+    request.flush(answer);
+  });
+
+  it('should show one row per design with its key figures formatted in engineering units', async () => {
+    (await nextList()).flush(answer);
     await fixture.whenStable();
-    const text: string = fixture.nativeElement.textContent;
-    expect(text).toContain('No designs yet');
-    expect(text).toContain('The design workbench is coming');
-    expect(fixture.nativeElement.querySelectorAll('table, li').length).toBe(0);
+    const [pressure, flow] = rows();
+    expect(rows().length).toBe(2);
+    expect(pressure.textContent).toContain('Line sensor, pressure');
+    expect(pressure.textContent).toContain('1.94 aF · 6.48 Pa');
+    expect(pressure.textContent).toContain('73.7 uV rms');
+    expect(pressure.textContent).toContain('27 % at adc');
+    expect(pressure.textContent).toContain('1 error');
+    expect(pressure.textContent).toContain('2 warnings');
+    expect(flow.textContent).toContain('1.2 aF · 7.82 nL/s');
+    expect(flow.textContent).toContain('none');
+    expect(flow.querySelector('.clipping')?.textContent).toContain('125 % at g1');
+    const link = pressure.querySelector<HTMLAnchorElement>('a[data-testid="design-link"]');
+    expect(link?.getAttribute('href')).toBe(`/designs/${answer.items[0].id}`);
+  });
+
+  it('should send the sort column and the archive filter to the server', async () => {
+    (await nextList()).flush(answer);
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const [name] = await (await loader.getHarness(MatSortHarness)).getSortHeaders({ label: 'Name' });
+    const sorted = name.click();
+    const byName = await nextList();
+    expect(params(byName)).toEqual(jasmine.objectContaining({ sort: 'name', order: 'asc' }));
+    byName.flush(answer);
+    await sorted;
+    const archived = await loader.getHarness(MatButtonToggleHarness.with({ text: 'Archived' }));
+    const toggled = archived.check();
+    const onlyArchived = await nextList();
+    expect(params(onlyArchived)).toEqual(jasmine.objectContaining({ archived: 'true', page: '0' }));
+    onlyArchived.flush({ ...answer, items: [], total: 0 });
+    await toggled;
+    await fixture.whenStable();
+    expect(fixture.nativeElement.textContent).toContain('No archived designs.');
+  });
+
+  it('should explain how to start when there are no designs at all', async () => {
+    (await nextList()).flush({ items: [], total: 0, page: 0, pageSize: 20 });
+    await fixture.whenStable();
+    const empty: HTMLElement | null = fixture.nativeElement.querySelector('[data-testid="designs-empty"]');
+    expect(empty?.textContent).toContain('No designs yet');
+    expect(fixture.nativeElement.querySelector('table')).toBeNull();
+  });
+
+  it('should show the problem when the list cannot be loaded', async () => {
+    (await nextList()).flush({ status: 500, title: 'Server error', detail: 'The database is not reachable.', errors: [] }, { status: 500, statusText: 'Server Error' });
+    await fixture.whenStable();
+    expect(fixture.nativeElement.querySelector('[data-testid="designs-error"]')?.textContent).toContain('The database is not reachable.');
   });
 });
