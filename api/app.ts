@@ -16,8 +16,13 @@ import { errorHandler, notFoundHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/document';
 import { docsRouter } from './openapi/docs.router';
 import type { Operation } from './openapi/operation';
+import { auditRouter } from './audit/audit.router';
 import { designOperations } from './designs/design.openapi';
 import { designRouter } from './designs/design.router';
+import type { Outbox } from './mail/outbox';
+import { mailboxRouter } from './mailbox/mailbox.router';
+import { reviewOperations } from './reviews/review.openapi';
+import { reviewRouter } from './reviews/review.router';
 import { userOperations } from './users/user.openapi';
 import { userRouter } from './users/user.router';
 
@@ -26,12 +31,14 @@ export interface AppDeps {
   db: Kysely<Database>;
   logger: Logger;
   version: string;
+  /** Delivers queued mail; without one, mail waits in the outbox for a process that has it. */
+  outbox?: Outbox | null;
 }
 
-export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations];
+export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations, ...reviewOperations];
 
 /** Builds the whole HTTP application; `api/main.ts` only listens. */
-export function createApp({ config, db, logger, version }: AppDeps): Express {
+export function createApp({ config, db, logger, version, outbox = null }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy) app.set('trust proxy', config.trustProxy);
@@ -71,6 +78,9 @@ export function createApp({ config, db, logger, version }: AppDeps): Express {
   api.use(authRouter(db, config));
   api.use(userRouter(db, config));
   api.use(designRouter(db, version));
+  api.use(reviewRouter(db, config, outbox));
+  api.use(auditRouter(db));
+  api.use(mailboxRouter(db));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -28,6 +28,11 @@ const environmentSchema = z.object({
   SIGN_IN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(30),
   SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(8),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  SMTP_URL: z.string().url('must be an smtp:// or smtps:// URL').optional(),
+  MAIL_CATCHER_PORT: z.coerce.number({ error: 'must be a port number' }).int().min(1).max(65535).default(2525),
+  MAIL_FROM: z.string().min(3).default('Quietbridge <quietbridge@localhost>'),
+  PUBLIC_URL: z.string().url('must be the URL people open, e.g. https://quietbridge.example.com').optional(),
+  INVITATION_TTL_DAYS: z.coerce.number().positive().max(90).default(7),
 });
 
 export interface Config {
@@ -44,6 +49,10 @@ export interface Config {
   staticDir: string;
   trustProxy: string | undefined;
   signInLimit: { perAddress: number; perAccount: number; windowMs: number };
+  mail: { smtpUrl: string; from: string; catcherPort: number };
+  /** Base of the links in e-mails. */
+  publicUrl: string;
+  invitationTtlMs: number;
 }
 
 export class ConfigError extends Error {}
@@ -91,5 +100,12 @@ export function loadConfig(environment: NodeJS.ProcessEnv = process.env): Config
       perAccount: e.SIGN_IN_LIMIT_PER_ACCOUNT,
       windowMs: Math.round(e.SIGN_IN_WINDOW_MINUTES * 60_000),
     },
+    mail: {
+      smtpUrl: e.SMTP_URL ?? `smtp://127.0.0.1:${e.MAIL_CATCHER_PORT}`,
+      from: e.MAIL_FROM,
+      catcherPort: e.MAIL_CATCHER_PORT,
+    },
+    publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/+$/, ''),
+    invitationTtlMs: Math.round(e.INVITATION_TTL_DAYS * 24 * 3600 * 1000),
   };
 }

@@ -3,6 +3,7 @@ import { createApp } from './app';
 import { ConfigError, loadConfig } from './config';
 import { createDatabase } from './db/database';
 import { createLogger } from './logger';
+import { createOutbox, createSmtpTransport } from './mail/outbox';
 import { version } from './version';
 
 let config;
@@ -18,7 +19,9 @@ try {
 
 const logger = createLogger(config.logLevel);
 const db = createDatabase(config.databaseUrl);
-const app = createApp({ config, db, logger, version });
+const outbox = createOutbox({ db, transport: createSmtpTransport(config.mail.smtpUrl), from: config.mail.from, logger });
+outbox.start();
+const app = createApp({ config, db, logger, version, outbox });
 const server = app.listen(config.port, config.host, () => {
   logger.info({ url: `http://${config.host}:${config.port}` }, 'Quietbridge is serving');
 });
@@ -30,7 +33,10 @@ server.on('error', (error) => {
 function shutDown(signal: string) {
   logger.info({ signal }, 'shutting down: finishing requests in flight');
   server.close(() => {
-    void db.destroy().finally(() => process.exit(0));
+    void outbox
+      .stop()
+      .then(() => db.destroy())
+      .finally(() => process.exit(0));
   });
   server.closeIdleConnections();
   setTimeout(() => process.exit(1), 10_000).unref();

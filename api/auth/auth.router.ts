@@ -1,7 +1,7 @@
 import bcrypt from 'bcryptjs';
-import { Router, type CookieOptions, type Response } from 'express';
+import { Router } from 'express';
 import type { Kysely } from 'kysely';
-import { changePasswordSchema, CSRF_COOKIE, SESSION_COOKIE, signInSchema } from '@shared/contracts/auth';
+import { changePasswordSchema, signInSchema } from '@shared/contracts/auth';
 import type { Config } from '../config';
 import type { Database } from '../db/database';
 import { badRequest, HttpProblem } from '../http/problem';
@@ -9,6 +9,7 @@ import { parseOrThrow } from '../http/validate';
 import { findUserByEmail, findUserById, toUser, updateUser } from '../users/user.repository';
 import { requireRole } from './authenticate';
 import { passwordProblems } from './password-policy';
+import { clearSessionCookies, setSessionCookies } from './session-cookies';
 import { issueSession, revokeSession, revokeSessionsOf } from './session.service';
 import { signInLimits } from './sign-in-limits';
 
@@ -17,13 +18,6 @@ const UNKNOWN_USER_HASH = bcrypt.hashSync('no account has this password', 10);
 
 export function authRouter(db: Kysely<Database>, config: Config): Router {
   const router = Router();
-  const cookieBase: CookieOptions = { sameSite: 'strict', secure: config.cookieSecure, path: '/' };
-
-  const clearCookies = (res: Response) => {
-    res.clearCookie(SESSION_COOKIE, { ...cookieBase, httpOnly: true });
-    res.clearCookie(CSRF_COOKIE, cookieBase);
-  };
-
   router.post('/auth/sign-in', ...signInLimits(config), async (req, res) => {
     const body = parseOrThrow(signInSchema, req.body, 'body');
     const user = await findUserByEmail(db, body.email);
@@ -31,15 +25,13 @@ export function authRouter(db: Kysely<Database>, config: Config): Router {
     if (!user || !passwordOk) throw new HttpProblem(401, 'Sign-in failed', 'The e-mail or the password is wrong.');
     if (user.disabled) throw new HttpProblem(401, 'Sign-in failed', 'This account is disabled; ask an administrator to enable it.');
     const session = await issueSession(db, config, user, { userAgent: req.get('user-agent') ?? null, address: req.ip ?? null });
-    const maxAge = config.sessionTtlSeconds * 1000;
-    res.cookie(SESSION_COOKIE, session.token, { ...cookieBase, httpOnly: true, maxAge });
-    res.cookie(CSRF_COOKIE, session.csrfToken, { ...cookieBase, httpOnly: false, maxAge });
+    setSessionCookies(res, config, session);
     res.json({ user: toUser(user), token: session.token, expiresAt: session.expiresAt.toISOString() });
   });
 
   router.post('/auth/sign-out', requireRole(), async (req, res) => {
     await revokeSession(db, req.auth!.sessionId);
-    clearCookies(res);
+    clearSessionCookies(res, config);
     res.status(204).end();
   });
 

@@ -50,11 +50,90 @@ export interface DesignVersionsTable {
   created_at: GeneratedTimestamp;
 }
 
+export type ReviewState = 'pending' | 'approved' | 'changes_requested';
+
+export interface ReviewsTable {
+  id: Generated<string>;
+  design_id: string;
+  version_number: number;
+  requested_by: string;
+  reviewer_email: string;
+  reviewer_id: string | null;
+  note: Generated<string>;
+  state: ColumnType<ReviewState, ReviewState | undefined, ReviewState>;
+  decision_note: string | null;
+  decided_at: Timestamp | null;
+  created_at: GeneratedTimestamp;
+}
+
+export interface InvitationsTable {
+  id: Generated<string>;
+  token_hash: string;
+  email: string;
+  invited_by: string;
+  expires_at: Timestamp;
+  used_at: Timestamp | null;
+  created_at: GeneratedTimestamp;
+}
+
+export interface ReviewCommentsTable {
+  id: Generated<string>;
+  review_id: string;
+  author_id: string;
+  parent_id: string | null;
+  stage: string | null;
+  field: string | null;
+  body: string;
+  resolved: Generated<boolean>;
+  created_at: GeneratedTimestamp;
+}
+
+export interface OutboxTable {
+  id: Generated<string>;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  review_id: string | null;
+  attempts: Generated<number>;
+  last_error: string | null;
+  next_attempt_at: GeneratedTimestamp;
+  sent_at: Timestamp | null;
+  created_at: GeneratedTimestamp;
+}
+
+export interface MailboxMessagesTable {
+  id: Generated<string>;
+  envelope_from: string;
+  recipients: string[];
+  subject: string;
+  text_body: string;
+  html_body: string;
+  raw: string;
+  received_at: GeneratedTimestamp;
+}
+
+export interface AuditEventsTable {
+  id: Generated<string>;
+  design_id: string;
+  version_number: number | null;
+  actor_id: string | null;
+  action: string;
+  detail: ColumnType<Record<string, unknown>, string | undefined, never>;
+  created_at: GeneratedTimestamp;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
   designs: DesignsTable;
   design_versions: DesignVersionsTable;
+  reviews: ReviewsTable;
+  invitations: InvitationsTable;
+  review_comments: ReviewCommentsTable;
+  outbox: OutboxTable;
+  mailbox_messages: MailboxMessagesTable;
+  audit_events: AuditEventsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

@@ -1,6 +1,7 @@
 import { sql, type Kysely, type Transaction } from 'kysely';
 import type { z } from 'zod';
 import type { DesignSummary, KeyFigures, listDesignsQuerySchema, Version, VersionSummary } from '@shared/contracts/designs-api';
+import { recordEvent } from '../audit/audit.repository';
 import type { Database } from '../db/database';
 
 type Db = Kysely<Database> | Transaction<Database>;
@@ -123,6 +124,7 @@ export async function insertDesign(db: Kysely<Database>, ownerId: string, name: 
       .returning('id')
       .executeTakeFirstOrThrow();
     await insertVersionRow(trx, design.id, 1, first);
+    await recordEvent(trx, { designId: design.id, versionNumber: 1, actorId: first.authorId, action: 'created', detail: { name, message: first.message } });
     return design.id;
   });
 }
@@ -156,16 +158,26 @@ export async function appendVersion(db: Kysely<Database>, designId: string, base
     const number = design.latest_version + 1;
     await insertVersionRow(trx, designId, number, version);
     await trx.updateTable('designs').set({ latest_version: number, updated_at: sql`now()` }).where('id', '=', designId).execute();
+    await recordEvent(trx, { designId, versionNumber: number, actorId: version.authorId, action: 'saved', detail: { message: version.message, baseVersion } });
     return { saved: true, number };
   });
 }
 
-export async function updateDesign(db: Db, id: string, changes: { name?: string; archived?: boolean }): Promise<void> {
-  await db
-    .updateTable('designs')
-    .set({ ...changes, updated_at: sql`now()` })
-    .where('id', '=', id)
-    .execute();
+export async function updateDesign(db: Kysely<Database>, id: string, actorId: string, changes: { name?: string; archived?: boolean }): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const before = await trx.selectFrom('designs').select(['name', 'archived']).where('id', '=', id).forUpdate().executeTakeFirstOrThrow();
+    await trx
+      .updateTable('designs')
+      .set({ ...changes, updated_at: sql`now()` })
+      .where('id', '=', id)
+      .execute();
+    if (changes.name !== undefined && changes.name !== before.name) {
+      await recordEvent(trx, { designId: id, actorId, action: 'renamed', detail: { from: before.name, to: changes.name } });
+    }
+    if (changes.archived !== undefined && changes.archived !== before.archived) {
+      await recordEvent(trx, { designId: id, actorId, action: changes.archived ? 'archived' : 'restored' });
+    }
+  });
 }
 
 function versionQuery(db: Db, designId: string) {

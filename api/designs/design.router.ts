@@ -70,7 +70,7 @@ export function designRouter(db: Kysely<Database>, engineVersion: string): Route
     const body = parseOrThrow(updateDesignSchema, req.body, 'body');
     const scope = scopeOf(req);
     if (!(await findDesign(db, scope, id))) throw noSuchDesign();
-    await updateDesign(db, id, body);
+    await updateDesign(db, id, req.auth!.user.id, body);
     res.json(await findDesign(db, scope, id));
   });
 

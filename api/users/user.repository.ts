@@ -1,4 +1,4 @@
-import { sql, type Kysely } from 'kysely';
+import { sql, type Kysely, type Transaction } from 'kysely';
 import type { z } from 'zod';
 import type { listUsersQuerySchema, User } from '@shared/contracts/user';
 import type { Database, NewUserRow, UserRow, UserUpdate } from '../db/database';
@@ -31,7 +31,7 @@ export async function findUserById(db: Kysely<Database>, id: string): Promise<Us
   return db.selectFrom('users').selectAll().where('id', '=', id).executeTakeFirst();
 }
 
-export async function insertUser(db: Kysely<Database>, user: NewUserRow): Promise<UserRow> {
+export async function insertUser(db: Kysely<Database> | Transaction<Database>, user: NewUserRow): Promise<UserRow> {
   return db.insertInto('users').values(user).returningAll().executeTakeFirstOrThrow();
 }
 

@@ -1,4 +1,3 @@
-import { sql } from 'kysely';
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import demoPressure from '@shared/examples/demo-pressure.json';
@@ -22,7 +21,6 @@ let admin: Record<string, string>;
 const bearer = (token: string) => ({ Authorization: `Bearer ${token}` });
 
 beforeEach(async () => {
-  await sql`truncate table design_versions, designs restart identity cascade`.execute(testApp.db);
   await resetTables(testApp);
   const accounts = await Promise.all([
     createAccount(testApp, 'designer', 'dana@example.com'),

@@ -1,9 +1,8 @@
-import { sql } from 'kysely';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEFAULT_DEMO_PASSWORD, seedDemoAccounts } from '../../tools/seed/demo-accounts';
 import { seedDemoDesigns } from '../../tools/seed/demo-designs';
-import { createTestApp } from '../support/test-app';
+import { createTestApp, resetTables } from '../support/test-app';
 
 const testApp = createTestApp();
 
@@ -25,7 +24,7 @@ async function snapshot() {
 
 describe('demo seed', () => {
   it('creates the three demo accounts and two demo designs with their histories, and a second run changes nothing', async () => {
-    await sql`truncate table design_versions, designs, sessions, users restart identity cascade`.execute(testApp.db);
+    await resetTables(testApp);
     expect(await seedDemoAccounts(testApp.db, DEFAULT_DEMO_PASSWORD, 10)).toEqual(['admin@example.com', 'designer@example.com', 'reviewer@example.com']);
     expect(await seedDemoDesigns(testApp.db, 'test')).toHaveLength(2);
     const first = await snapshot();

@@ -6,12 +6,13 @@ import type { Role } from '@shared/contracts/user';
 import { createApp } from '../../api/app';
 import { loadConfig, type Config } from '../../api/config';
 import { createDatabase } from '../../api/db/database';
+import type { Outbox } from '../../api/mail/outbox';
 import { insertUser } from '../../api/users/user.repository';
 
 export const TEST_PASSWORD = 'test-password-4711';
 
 /** An app on the throwaway database with fast hashing and the given overrides. */
-export function createTestApp(overrides: Partial<Config> = {}) {
+export function createTestApp(overrides: Partial<Config> = {}, extra: { outbox?: Outbox } = {}) {
   const url = process.env.TEST_DATABASE_URL;
   if (!url) throw new Error('TEST_DATABASE_URL is not set: run the API suites through vitest (global setup starts the database)');
   const config: Config = {
@@ -20,14 +21,14 @@ export function createTestApp(overrides: Partial<Config> = {}) {
     ...overrides,
   };
   const db = createDatabase(url, { max: 5 });
-  const app = createApp({ config, db, logger: pino({ level: 'silent' }), version: 'test' });
+  const app = createApp({ config, db, logger: pino({ level: 'silent' }), version: 'test', outbox: extra.outbox ?? null });
   return { app, db, config };
 }
 
 export type TestApp = ReturnType<typeof createTestApp>;
 
 export async function resetTables({ db }: TestApp): Promise<void> {
-  await sql`truncate table sessions, users restart identity cascade`.execute(db);
+  await sql`truncate table audit_events, mailbox_messages, outbox, review_comments, invitations, reviews, design_versions, designs, sessions, users restart identity cascade`.execute(db);
 }
 
 let passwordHash: string | undefined;
