@@ -14,6 +14,7 @@ async function main() {
   if (nodeScript('tools/migrate.ts', [], env) !== 0) throw new Error('migrations failed');
   if (nodeScript('tools/seed.ts', [], env) !== 0) throw new Error('seeding the demo failed');
 
+  const catcher = process.env.SMTP_URL ? null : spawn(process.execPath, ['--import', 'tsx', 'tools/mail-catcher.ts'], { cwd: projectRoot, stdio: 'inherit', env });
   const api = startServer({ ...env, PORT: process.env.API_PORT ?? '3000', HOST: '127.0.0.1' }, { watch: true });
   const web = spawn(process.execPath, [join(projectRoot, 'node_modules', '@angular', 'cli', 'bin', 'ng.js'), 'serve', '--host', '127.0.0.1', '--port', '4200'], {
     cwd: projectRoot,
@@ -22,6 +23,7 @@ async function main() {
   });
   say('dev', 'web app on http://127.0.0.1:4200 (reloads on change), API on http://127.0.0.1:3000 (restarts on change)');
   const stop = () => {
+    catcher?.kill('SIGTERM');
     api.kill('SIGTERM');
     web.kill('SIGTERM');
     stopCluster();

@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 // `npm start`: install what is missing, start PostgreSQL on loopback, migrate, seed, build, serve.
+import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { ensureDependencies, ng, nodeScript, projectTmpDir, say, startServer, waitForHealth } from './lib/process.mjs';
+import { ensureDependencies, ng, nodeScript, projectRoot, projectTmpDir, say, startServer, waitForHealth } from './lib/process.mjs';
 
 async function main() {
   process.env.TMPDIR ??= projectTmpDir();
@@ -23,11 +24,14 @@ async function main() {
   const port = Number(process.env.PORT ?? 4200);
   const host = process.env.HOST ?? '127.0.0.1';
   const url = `http://${host}:${port}`;
+  // The local mail catcher, unless SMTP_URL points at a real mail server.
+  const catcher = process.env.SMTP_URL ? null : spawn(process.execPath, ['--import', 'tsx', 'tools/mail-catcher.ts'], { cwd: projectRoot, stdio: 'inherit', env });
   const server = startServer({ ...env, PORT: String(port), HOST: host });
   let stopping = false;
   const stop = (code) => {
     if (stopping) return;
     stopping = true;
+    catcher?.kill('SIGTERM');
     server.kill('SIGTERM');
     server.once('exit', () => {
       stopCluster();
@@ -52,6 +56,7 @@ async function main() {
       '  Quietbridge is running.',
       `  Open            ${url}`,
       `  API reference   ${url}/api/docs`,
+      `  Mail            ${process.env.SMTP_URL ? 'sent through SMTP_URL' : `caught on smtp://127.0.0.1:${process.env.MAIL_CATCHER_PORT ?? 2525}; admins read it on the Mailbox page`}`,
       `  Database        ${cluster ? `${cluster.url} (data in ${cluster.dataDir})` : 'DATABASE_URL (external)'}`,
       '',
       '  Demo accounts (password for all three):',

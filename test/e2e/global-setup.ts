@@ -31,20 +31,30 @@ export default async function setup(): Promise<() => Promise<void>> {
     execFileSync(process.execPath, ['--import', 'tsx', script], { cwd: projectRoot, env, stdio: 'inherit' });
   }
   const port = await freePort();
+  const mailPort = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
+  // The mail catcher the suites read links from (the reviewer's invitation, for example).
+  const catcher: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'tools/mail-catcher.ts'], {
+    cwd: projectRoot,
+    env: { ...env, MAIL_CATCHER_PORT: String(mailPort) },
+    stdio: 'inherit',
+  });
   const server: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'api/main.ts'], {
     cwd: projectRoot,
-    env: { ...env, PORT: String(port), HOST: '127.0.0.1', SESSION_SECRET: 'end-to-end-secret-that-is-long-enough-42' },
+    env: { ...env, PORT: String(port), HOST: '127.0.0.1', SESSION_SECRET: 'end-to-end-secret-that-is-long-enough-42', MAIL_CATCHER_PORT: String(mailPort), SIGN_IN_LIMIT_PER_ADDRESS: '1000' },
     stdio: 'inherit',
   });
   await waitForHealth(baseUrl, server);
   process.env.E2E_BASE_URL = baseUrl;
-  return async () => {
-    await new Promise<void>((resolve) => {
-      if (server.exitCode !== null) return resolve();
-      server.once('exit', () => resolve());
-      server.kill('SIGTERM');
+  const stopChild = (child: ChildProcess) =>
+    new Promise<void>((resolve) => {
+      if (child.exitCode !== null) return resolve();
+      child.once('exit', () => resolve());
+      child.kill('SIGTERM');
     });
+  return async () => {
+    await stopChild(server);
+    await stopChild(catcher);
     if (ownCluster) stopTestDatabase();
   };
 }
