@@ -1,10 +1,12 @@
 import type { Command } from './command';
 import { budgetCommand } from './commands/budget';
+import { psdCommand } from './commands/psd';
+import { simulateCommand } from './commands/simulate';
 import { sweepCommand } from './commands/sweep';
 import { validateCommand } from './commands/validate';
 
 /** The CLI's commands; a new one is a file in commands/ plus one entry here. */
-export const commands: readonly Command[] = [validateCommand, budgetCommand, sweepCommand];
+export const commands: readonly Command[] = [validateCommand, budgetCommand, sweepCommand, simulateCommand, psdCommand];
 
 export function findCommand(name: string): Command | undefined {
   return commands.find((c) => c.name === name);
