@@ -16,6 +16,7 @@ const MARGIN = { top: 30, right: 72, bottom: 44 };
   templateUrl: './bar-chart.html',
   styleUrl: './charts.scss',
   encapsulation: ViewEncapsulation.None,
+  host: { class: 'qb-chart-host' },
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class BarChart {

@@ -127,7 +127,7 @@ export function saveFile(blob: Blob, fileName: string): void {
 
 /** A file name without characters file systems refuse. */
 export function safeFileName(name: string): string {
-  const cleaned = name.trim().replace(/[\\/:*?"<>|\u0000-\u001f]+/g, '-').replace(/\s+/g, '-');
+  const cleaned = name.trim().replace(/[\\/:*?"<>|\s\u0000-\u001f]+/g, '-');
   return cleaned === '' ? 'chart' : cleaned;
 }
 

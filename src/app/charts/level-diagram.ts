@@ -18,6 +18,7 @@ const MARGIN = { top: 40, right: 16, bottom: 52, left: 64 };
   templateUrl: './level-diagram.html',
   styleUrl: './charts.scss',
   encapsulation: ViewEncapsulation.None,
+  host: { class: 'qb-chart-host' },
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class LevelDiagram {

@@ -48,6 +48,7 @@ let nextClipId = 0;
   templateUrl: './line-chart.html',
   styleUrl: './charts.scss',
   encapsulation: ViewEncapsulation.None,
+  host: { class: 'qb-chart-host' },
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class LineChart {
