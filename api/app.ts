@@ -21,6 +21,7 @@ import { designOperations } from './designs/design.openapi';
 import { designRouter } from './designs/design.router';
 import type { Outbox } from './mail/outbox';
 import { mailboxRouter } from './mailbox/mailbox.router';
+import { reportRouter } from './reports/report.router';
 import { reviewOperations } from './reviews/review.openapi';
 import { reviewRouter } from './reviews/review.router';
 import { userOperations } from './users/user.openapi';
@@ -80,6 +81,7 @@ export function createApp({ config, db, logger, version, outbox = null }: AppDep
   api.use(designRouter(db, version));
   api.use(reviewRouter(db, config, outbox));
   api.use(auditRouter(db));
+  api.use(reportRouter(db, version));
   api.use(mailboxRouter(db));
   api.use(notFoundHandler);
   app.use('/api', api);

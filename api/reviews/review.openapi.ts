@@ -114,6 +114,15 @@ export const reviewOperations: Operation[] = [
   },
   {
     method: 'get',
+    path: '/api/designs/{id}/versions/{number}/report',
+    summary: 'The design report of a version as a PDF: figures, noise budget, levels, output spectrum, findings, review state and the cautions',
+    tag: 'Reviews',
+    access: 'any',
+    pathParameters: ['id', 'number'],
+    responses: { 200: { description: 'The report', contentType: 'application/pdf', schema: z.string().describe('PDF document') }, 404: { description: 'Not yours and not shared with you' } },
+  },
+  {
+    method: 'get',
     path: '/api/mailbox',
     summary: 'Messages caught by the local mail catcher, newest first',
     tag: 'Mailbox',

@@ -213,3 +213,31 @@ describe('the review loop', () => {
     await expect(testApp.db.deleteFrom('audit_events').execute()).rejects.toThrow(/append-only/);
   });
 });
+
+describe('the design report', () => {
+  it('is a PDF of several pages for the owner and the version’s reviewer, and 404 for anyone else', async () => {
+    const share = await request(testApp.app).post(`/api/designs/${designId}/versions/1/reviews`).set(designer).send({ reviewerEmail: 'rita@example.com' });
+    await request(testApp.app).post(`/api/reviews/${share.body.id}/decision`).set(reviewer).send({ decision: 'approved', note: 'Fine' });
+    const pdf = await request(testApp.app)
+      .get(`/api/designs/${designId}/versions/1/report`)
+      .set(designer)
+      .buffer(true)
+      .parse((res, callback) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => callback(null, Buffer.concat(chunks)));
+      });
+    expect(pdf.status).toBe(200);
+    expect(pdf.headers['content-type']).toBe('application/pdf');
+    expect(pdf.headers['content-disposition']).toBe('attachment; filename="Line-sensor-v1-report.pdf"');
+    const body = pdf.body as Buffer;
+    expect(body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const pages = body.toString('latin1').match(/\/Type \/Page\b/g) ?? [];
+    expect(pages.length).toBeGreaterThanOrEqual(2);
+
+    expect((await request(testApp.app).get(`/api/designs/${designId}/versions/1/report`).set(reviewer)).status).toBe(200);
+    expect((await request(testApp.app).get(`/api/designs/${designId}/versions/1/report`).set(outsider)).status).toBe(404);
+    expect((await request(testApp.app).get(`/api/designs/${designId}/versions/1/report`).set(otherDesigner)).status).toBe(404);
+    expect((await request(testApp.app).get(`/api/designs/${designId}/versions/7/report`).set(designer)).status).toBe(404);
+  }, 60_000);
+});
