@@ -21,6 +21,12 @@ export const routes: Routes = [
         loadComponent: () => import('./designs/designs').then((m) => m.Designs),
       },
       {
+        path: 'designs/:id',
+        title: 'Design workbench · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./workbench/workbench').then((m) => m.Workbench),
+      },
+      {
         path: 'accounts',
         title: 'Accounts · Quietbridge',
         canActivate: [authGuard, roleGuard('admin')],

@@ -1,0 +1,53 @@
+import { Injectable } from '@angular/core';
+
+/** An unsaved edit kept in this browser, with the version it was made on. */
+export interface Draft {
+  designId: string;
+  baseVersion: number;
+  savedAt: string;
+  document: Record<string, unknown>;
+}
+
+const PREFIX = 'quietbridge.draft.';
+
+/** Unsaved edits in localStorage, one per design and base version, so that a reload loses nothing. */
+@Injectable({ providedIn: 'root' })
+export class DraftStore {
+  save(designId: string, baseVersion: number, document: Record<string, unknown>): void {
+    const draft: Draft = { designId, baseVersion, savedAt: new Date().toISOString(), document };
+    try {
+      localStorage.setItem(this.key(designId, baseVersion), JSON.stringify(draft));
+    } catch {
+      // Storage full or refused (private mode): the edit stays in the page, only the reload safety net is missing.
+    }
+  }
+
+  discard(designId: string, baseVersion: number): void {
+    localStorage.removeItem(this.key(designId, baseVersion));
+  }
+
+  /** The newest draft of a design on any base version, or null. */
+  newest(designId: string): Draft | null {
+    let newest: Draft | null = null;
+    for (let i = 0; i < localStorage.length; i++) {
+      const key = localStorage.key(i);
+      if (key === null || !key.startsWith(`${PREFIX}${designId}.`)) continue;
+      const draft = this.read(key);
+      if (draft !== null && (newest === null || draft.savedAt > newest.savedAt)) newest = draft;
+    }
+    return newest;
+  }
+
+  private read(key: string): Draft | null {
+    try {
+      const value = JSON.parse(localStorage.getItem(key) ?? 'null') as Draft | null;
+      return value !== null && typeof value.baseVersion === 'number' && typeof value.savedAt === 'string' && typeof value.document === 'object' ? value : null;
+    } catch {
+      return null;
+    }
+  }
+
+  private key(designId: string, baseVersion: number): string {
+    return `${PREFIX}${designId}.${baseVersion}`;
+  }
+}
