@@ -4,7 +4,9 @@ import { lowPassSos } from '../filters/digital';
 import { SosFilter } from '../filters/sos-filter';
 import { GaussianSource } from '../noise/gaussian';
 import { Xoshiro128StarStar } from '../noise/xoshiro128';
+import { stageRegistry } from '../stages/registry';
 import type { StageContext } from '../stages/stage';
+import { processorFactories } from './processors';
 import { minMaxEnvelope, EnvelopeRecorder } from './envelope';
 import { bandRms, ripplePeak, stepMetrics } from './measure';
 import { createProfileSampler, profileValue } from './profile';
@@ -222,5 +224,23 @@ describe('processors', () => {
     expect(samples[1]).toBeCloseTo(Math.round((0.3 * q + 8e-3) / q) * q, 12);
     expect(samples[9]).toBeCloseTo(2.5 - q, 12);
     expect(adc.clippedSamples).toBe(5);
+  });
+});
+
+describe('stage module hooks', () => {
+  it('build the same block processor as the simulator map, for every kind', () => {
+    // reference: ENGINE.md section 3 (each stage module provides its block processor).
+    const input = Float64Array.from({ length: 512 }, (_, n) => Math.sin(n / 5) * 1e-13);
+    for (const stageModule of stageRegistry.modules) {
+      const parameters = stageModule.defaults('s');
+      const fromHook = stageModule.createProcessor?.(parameters, context, 3.2e6);
+      const fromMap = (processorFactories as Record<string, (p: unknown, c: StageContext, fs: number, noise: null) => { process(i: Float64Array, o: Float64Array): void }>)[stageModule.kind](parameters, context, 3.2e6, null);
+      const a = new Float64Array(512);
+      const b = new Float64Array(512);
+      fromHook?.process(input, a);
+      fromMap.process(input, b);
+      expect(fromHook).toBeDefined();
+      expect(a).toEqual(b);
+    }
   });
 });

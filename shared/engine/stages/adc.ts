@@ -4,6 +4,7 @@ import { digits, finding, number } from '../findings';
 import type { Finding } from '../../contracts/findings';
 import { formatQuantity } from '../../units/format';
 import type { StageModule } from './stage';
+import { createAdcProcessor } from '../simulation/processors/adc';
 
 export const adcSchema = z
   .object({
@@ -27,6 +28,7 @@ export const adcModule: StageModule<AdcStage> = {
   mustBeLast: true,
   schema: adcSchema,
   defaults: (id) => ({ id, kind: 'adc', bits: 16, inputRange: [0, 5], sampleRate: 4000 }),
+  createProcessor: createAdcProcessor,
   prepare(p, context) {
     const [low, high] = p.inputRange;
     const lsb = (high - low) / 2 ** p.bits;

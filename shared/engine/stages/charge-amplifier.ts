@@ -5,6 +5,7 @@ import { digits, finding, number } from '../findings';
 import type { Finding } from '../../contracts/findings';
 import { formatQuantity } from '../../units/format';
 import type { NoiseSource, StageModule } from './stage';
+import { createChargeAmplifierProcessor } from '../simulation/processors/charge-amplifier';
 
 export const chargeAmplifierSchema = z
   .object({
@@ -46,6 +47,7 @@ export const chargeAmplifierModule: StageModule<ChargeAmplifierStage> = {
     outputSwing: [0.1, 4.9],
     slewRate: 5e6,
   }),
+  createProcessor: createChargeAmplifierProcessor,
   prepare(p, context) {
     const cf = p.feedbackCapacitance;
     const rf = p.feedbackResistance;

@@ -3,6 +3,7 @@ import { quantity, stageIdSchema } from '../../contracts/fields';
 import { digits, finding, number } from '../findings';
 import type { Finding } from '../../contracts/findings';
 import type { StageModule } from './stage';
+import { createDemodulatorProcessor } from '../simulation/processors/demodulator';
 
 export const demodulatorSchema = z
   .object({
@@ -26,6 +27,7 @@ export const demodulatorModule: StageModule<DemodulatorStage> = {
   mustBeLast: false,
   schema: demodulatorSchema,
   defaults: (id) => ({ id, kind: 'demodulator', phase: 0 }),
+  createProcessor: createDemodulatorProcessor,
   prepare(p, context) {
     const target = { stage: p.id, path: context.path };
     return {

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { quantity, stageIdSchema, voltageRange } from '../../contracts/fields';
 import { FREQUENCY_FLOOR, TWO_PI } from '../constants';
 import type { StageModule } from './stage';
+import { createGainProcessor } from '../simulation/processors/gain';
 
 export const gainSchema = z
   .object({
@@ -24,6 +25,7 @@ export const gainModule: StageModule<GainStage> = {
   mustBeLast: false,
   schema: gainSchema,
   defaults: (id) => ({ id, kind: 'gain', gain: 4, gainBandwidth: 1e7, voltageNoise: 8e-9, flickerCorner: 2e3, outputSwing: [0.1, 4.9] }),
+  createProcessor: createGainProcessor,
   prepare(p, context) {
     const pole = p.gainBandwidth / p.gain;
     const white = p.voltageNoise * p.voltageNoise * p.gain * p.gain;

@@ -4,6 +4,7 @@ import { analogFilter, cornerForMagnitude } from '../filters/analog-response';
 import { digits, finding, number } from '../findings';
 import { formatQuantity } from '../../units/format';
 import type { StageModule } from './stage';
+import { createHighPassProcessor } from '../simulation/processors/high-pass';
 
 export const highPassSchema = z
   .object({
@@ -27,6 +28,7 @@ export const highPassModule: StageModule<HighPassStage> = {
   mustBeLast: false,
   schema: highPassSchema,
   defaults: (id) => ({ id, kind: 'highPass', order: 2, corner: 5e3, response: 'butterworth' }),
+  createProcessor: createHighPassProcessor,
   prepare(p, context) {
     const filter = analogFilter('highPass', p.response, p.order, p.corner);
     const carrier = context.carrierFrequency;

@@ -5,6 +5,7 @@ import { FREQUENCY_FLOOR } from '../constants';
 import { digits, finding, number } from '../findings';
 import { formatQuantity } from '../../units/format';
 import type { StageModule } from './stage';
+import { createLowPassProcessor } from '../simulation/processors/low-pass';
 
 export const lowPassSchema = z
   .object({
@@ -28,6 +29,7 @@ export const lowPassModule: StageModule<LowPassStage> = {
   mustBeLast: false,
   schema: lowPassSchema,
   defaults: (id) => ({ id, kind: 'lowPass', order: 2, corner: 500, response: 'butterworth', voltageNoise: 8e-9, flickerCorner: 2e3, outputSwing: [0.1, 4.9] }),
+  createProcessor: createLowPassProcessor,
   prepare(p, context) {
     const filter = analogFilter('lowPass', p.response, p.order, p.corner);
     const white = p.voltageNoise * p.voltageNoise;
