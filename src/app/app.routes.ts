@@ -27,6 +27,12 @@ export const routes: Routes = [
         loadComponent: () => import('./workbench/workbench').then((m) => m.Workbench),
       },
       {
+        path: 'designs/:id/compare',
+        title: 'Compare versions · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./compare/compare-page').then((m) => m.ComparePage),
+      },
+      {
         path: 'accounts',
         title: 'Accounts · Quietbridge',
         canActivate: [authGuard, roleGuard('admin')],
