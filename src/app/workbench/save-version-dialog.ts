@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogActions, MatDialogClose, MatDialogContent, MatDialogRef, MatDialogTitle } from '@angular/material/dialog';
 import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
@@ -16,7 +16,7 @@ export interface SaveVersionRequest {
   imports: [MatButton, MatDialogActions, MatDialogClose, MatDialogContent, MatDialogTitle, MatError, MatFormField, MatHint, MatInput, MatLabel, ReactiveFormsModule],
   template: `
     <h2 mat-dialog-title>Save a version of {{ data.designName }}</h2>
-    <form (ngSubmit)="save()">
+    <form [formGroup]="form" (ngSubmit)="save()">
       <mat-dialog-content>
         <p class="lead">The new version goes on top of version {{ data.baseVersion }}, which you edited. Versions are never changed once saved.</p>
         <mat-form-field appearance="outline" class="message">
@@ -51,6 +51,7 @@ export class SaveVersionDialog {
   protected readonly data = inject<SaveVersionRequest>(MAT_DIALOG_DATA);
   private readonly dialogRef = inject<MatDialogRef<SaveVersionDialog, string>>(MatDialogRef);
   protected readonly message = new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(2000)] });
+  protected readonly form = new FormGroup({ message: this.message });
 
   protected save(): void {
     this.message.markAsTouched();

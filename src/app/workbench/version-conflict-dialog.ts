@@ -5,7 +5,7 @@ import { MAT_DIALOG_DATA, MatDialogActions, MatDialogClose, MatDialogContent, Ma
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { problemFrom } from '../core/http/api-problem';
 import { DesignsApi } from '../designs/designs-api';
-import { documentChanges } from './document-changes';
+import { compareVersions } from '@shared/engine/compare/compare-versions';
 
 export interface VersionConflict {
   designId: string;
@@ -95,5 +95,13 @@ export class VersionConflictDialog {
 
   protected readonly latest = rxResource({ stream: () => this.designs.version(this.data.designId, this.data.latestVersion) });
   protected readonly loadError = computed(() => (this.latest.error() ? problemFrom(this.latest.error()).detail : null));
-  protected readonly changes = computed(() => (this.latest.hasValue() ? documentChanges(this.latest.value().document, this.data.draft) : []));
+  /** What the draft changes against the latest version, stages matched by id. */
+  private readonly comparison = computed(() => (this.latest.hasValue() ? compareVersions(this.latest.value().document, this.data.draft) : null));
+  protected readonly changes = computed(() => {
+    const comparison = this.comparison();
+    if (comparison === null) return [];
+    const stages = comparison.stages.map((stage) => ({ path: `stage ${stage.id}`, label: `${stage.id} (${stage.kind})`, before: stage.change === 'added' ? '(absent)' : `position ${Number(stage.oldIndex) + 1}`, after: stage.change === 'removed' ? '(removed)' : `position ${Number(stage.newIndex) + 1}` }));
+    const fields = comparison.fields.map((field) => ({ path: field.path, label: field.stage === null ? field.label : `${field.stage} · ${field.label}`, before: field.oldText, after: field.newText }));
+    return [...stages, ...fields];
+  });
 }

@@ -27,6 +27,9 @@ import { controlAtPath, createDesignForm, documentOf, loadIntoForm, type DesignF
 import { DraftStore, type Draft } from './draft-store';
 import { EditedErrorStateMatcher } from './edited-error-state';
 import { LevelsTab } from './levels-tab/levels-tab';
+import { SimulationSession } from './simulation-tab/simulation-session';
+import { SimulationTab } from './simulation-tab/simulation-tab';
+import { SpectraTab } from './spectra-tab/spectra-tab';
 import { LiveEvaluation } from './live-evaluation';
 import { SaveVersionDialog, type SaveVersionRequest } from './save-version-dialog';
 import { VersionConflictDialog, type VersionConflict } from './version-conflict-dialog';
@@ -48,11 +51,11 @@ function designFrom(document: Record<string, unknown>): Design {
 /** The design workbench: chain forms, live budget and levels, simulation, spectra and sweeps, versions. */
 @Component({
   selector: 'qb-workbench',
-  imports: [BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, VersionHistory],
+  imports: [BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, SimulationTab, SpectraTab, VersionHistory],
   templateUrl: './workbench.html',
   styleUrl: './workbench.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  providers: [LiveEvaluation, { provide: ErrorStateMatcher, useClass: EditedErrorStateMatcher }],
+  providers: [LiveEvaluation, SimulationSession, { provide: ErrorStateMatcher, useClass: EditedErrorStateMatcher }],
 })
 export class Workbench {
   private readonly designs = inject(DesignsApi);

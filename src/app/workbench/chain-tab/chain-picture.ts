@@ -48,7 +48,7 @@ export class ChainPicture {
       const percent = used === null ? null : Math.round(used * 100);
       const state: Block['state'] = used === null ? 'passive' : used > 1 ? 'clip' : used >= 0.8 ? 'warn' : 'ok';
       const detail = level === undefined ? '' : `peak ${formatQuantity(level.peak, 'voltage')}`;
-      return { id: stage.id, title: stageTitles[stage.kind], domain: stage.kind === 'demodulator' ? 'carrier' : domain, percent, state, detail };
+      return { id: stage.id, title: stageTitles[stage.kind], domain, percent, state, detail };
     });
   });
 

@@ -16,8 +16,13 @@ import { ErrorStateMatcher } from '@angular/material/core';
 import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { DimensionName } from '@shared/units';
-import { formatQuantity } from '@shared/units';
 import { formatEngineeringValue, parseEngineeringValue, unitOf } from './engineering-value';
+
+function siText(value: number): string {
+  const magnitude = Math.abs(value);
+  if (magnitude !== 0 && (magnitude >= 1e4 || magnitude < 1e-3)) return value.toExponential(3).replace(/\.?0+e/, 'e').replace('e+', 'e');
+  return String(Number(value.toPrecision(4)));
+}
 
 /** The message of the first error on a control, in the order a designer should read them. */
 export function controlErrorMessage(errors: ValidationErrors | null): string | null {
@@ -64,6 +69,7 @@ export class EngineeringInput implements ControlValueAccessor, OnInit {
   protected readonly suffix = computed(() => unitOf(this.dimension(), this.unit()));
   /** What the text was read as, for the hint. */
   protected readonly reading = signal<string | null>(null);
+  protected readonly empty = signal(true);
   /** The error shown in place: once the field has been edited or left, or when the design check put one on it. */
   protected readonly errorMessage = signal<string | null>(null);
   protected readonly errorStateMatcher: ErrorStateMatcher = { isErrorState: () => this.errorMessage() !== null };
@@ -135,6 +141,7 @@ export class EngineeringInput implements ControlValueAccessor, OnInit {
     this.value = value;
     this.parseError = error;
     this.reading.set(this.describe(value));
+    this.empty.set(this.text.value.trim() === '');
     this.onChange(value);
   }
 
@@ -146,12 +153,15 @@ export class EngineeringInput implements ControlValueAccessor, OnInit {
   private showValue(value: number | null, dimension: DimensionName | null): void {
     this.text.setValue(value === null ? '' : formatEngineeringValue(value, dimension), { emitEvent: false });
     this.reading.set(this.describe(value));
+    this.empty.set(value === null);
   }
 
+  /** The value as read, in SI units ("= 2.2e-12 F"); a plain number only when the text was not already that number. */
   private describe(value: number | null): string | null {
     if (value === null) return null;
     const dimension = this.dimension();
-    return dimension === null ? `= ${value}` : `= ${formatQuantity(value, dimension, { significant: 4 })}`;
+    if (dimension === null) return this.text.value.trim() === String(value) ? null : `= ${value}`;
+    return `= ${siText(value)} ${unitOf(dimension, '')}`;
   }
 
   private outer(): AbstractControl | null {
