@@ -110,6 +110,16 @@ describe('the design workbench in the browser', () => {
     await expect.poll(() => page.getByTestId('closest-to-clipping').textContent()).toMatch(/Closest to clipping: adc/);
     await page.screenshot({ path: path.join(outputDir, 'workbench-levels-1280x800.png'), fullPage: true });
 
+    // The time-domain simulation runs in a worker with visible progress, then its spectrum can be read.
+    await page.getByRole('tab', { name: 'Simulation' }).click();
+    await page.getByTestId('simulation-run').click();
+    await page.getByTestId('simulation-progress').waitFor({ state: 'visible', timeout: 10000 });
+    await page.getByTestId('simulation-result').waitFor({ state: 'visible', timeout: 60000 });
+    await page.screenshot({ path: path.join(outputDir, 'workbench-simulation-1280x800.png'), fullPage: true });
+    await page.getByRole('tab', { name: 'Spectra' }).click();
+    await expect.poll(() => page.getByTestId('spectrum-chart').locator('svg path').count(), { timeout: 20000 }).toBeGreaterThan(0);
+    await page.screenshot({ path: path.join(outputDir, 'workbench-spectra-1280x800.png'), fullPage: true });
+
     await page.getByTestId('save-version').click();
     await page.getByTestId('version-message').fill('Excitation down to 1 V to see the resolution it costs');
     await page.getByTestId('confirm-save').click();
