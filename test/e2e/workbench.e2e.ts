@@ -160,5 +160,8 @@ describe('the design workbench in the browser', () => {
     await expect.poll(() => page.getByTestId('block-lp').getAttribute('class')).toMatch(/highlighted/);
     await page.waitForTimeout(400);
     await page.screenshot({ path: path.join(outputDir, 'workbench-chain-1920x1080.png') });
+    await page.getByRole('tab', { name: 'Sweep' }).click();
+    await page.waitForTimeout(400);
+    await page.screenshot({ path: path.join(outputDir, 'workbench-sweep-1920x1080.png') });
   });
 });

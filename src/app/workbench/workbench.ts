@@ -30,6 +30,7 @@ import { LevelsTab } from './levels-tab/levels-tab';
 import { SimulationSession } from './simulation-tab/simulation-session';
 import { SimulationTab } from './simulation-tab/simulation-tab';
 import { SpectraTab } from './spectra-tab/spectra-tab';
+import { SweepTab } from './sweep-tab/sweep-tab';
 import { LiveEvaluation } from './live-evaluation';
 import { SaveVersionDialog, type SaveVersionRequest } from './save-version-dialog';
 import { VersionConflictDialog, type VersionConflict } from './version-conflict-dialog';
@@ -51,7 +52,7 @@ function designFrom(document: Record<string, unknown>): Design {
 /** The design workbench: chain forms, live budget and levels, simulation, spectra and sweeps, versions. */
 @Component({
   selector: 'qb-workbench',
-  imports: [BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, SimulationTab, SpectraTab, VersionHistory],
+  imports: [BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, SimulationTab, SpectraTab, SweepTab, VersionHistory],
   templateUrl: './workbench.html',
   styleUrl: './workbench.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
