@@ -117,7 +117,9 @@ describe('the design workbench in the browser', () => {
     await page.getByTestId('simulation-result').waitFor({ state: 'visible', timeout: 60000 });
     await page.screenshot({ path: path.join(outputDir, 'workbench-simulation-1280x800.png'), fullPage: true });
     await page.getByRole('tab', { name: 'Spectra' }).click();
-    await expect.poll(() => page.getByTestId('spectrum-chart').locator('svg path').count(), { timeout: 20000 }).toBeGreaterThan(0);
+    // The spectrum is drawn once the worker has computed it: a line with a real path, no progress bar left.
+    await expect.poll(() => page.getByTestId('spectrum-chart').locator('path.line').getAttribute('d'), { timeout: 30000 }).toMatch(/^M[\d.]+,[\d.]+L/);
+    await expect.poll(() => page.locator('qb-spectra-tab mat-progress-bar').count()).toBe(0);
     await page.screenshot({ path: path.join(outputDir, 'workbench-spectra-1280x800.png'), fullPage: true });
 
     await page.getByTestId('save-version').click();
