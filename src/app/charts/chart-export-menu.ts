@@ -26,7 +26,8 @@ export class ChartExportMenu {
   private readonly snackBar = inject(MatSnackBar);
 
   readonly svg = input.required<SVGSVGElement | undefined>();
-  readonly table = input.required<ChartTable>();
+  /** Read only when the CSV is asked for: a chart's table can be long. */
+  readonly table = input.required<() => ChartTable>();
   readonly fileName = input.required<string>();
 
   protected savePng(): void {
@@ -43,6 +44,6 @@ export class ChartExportMenu {
   }
 
   protected saveCsv(): void {
-    exportCsv(this.table(), this.fileName());
+    exportCsv(this.table()(), this.fileName());
   }
 }

@@ -125,11 +125,13 @@ export class LineChart {
     return this.prepared().map((s, index) => {
       const points = decimate(s, x, columns);
       const path = line<number>()
+        .digits(1)
         .x((i) => x(points.x[i]))
         .y((i) => y(points.y[i]))(indices(points.x.length));
       const band =
         points.low && points.high
           ? area<number>()
+              .digits(1)
               .x((i) => x(points.x[i]))
               .y0((i) => y((points.low as Float64Array)[i]))
               .y1((i) => y((points.high as Float64Array)[i]))(indices(points.x.length))
@@ -311,14 +313,14 @@ function visibleRange(series: PreparedSeries, from: number, to: number): [number
 }
 
 /**
- * The points to draw: all of them when they fit, else per pixel column the first, lowest, highest
- * and last point, so that peaks and the band's edges stay visible.
+ * The points to draw: all of them when they fit two to a pixel column, else per column the lowest
+ * and the highest (in their order), so that peaks and the band's edges stay visible.
  */
 function decimate(series: PreparedSeries, x: Scale, columns: number): { x: Float64Array; y: Float64Array; low: Float64Array | null; high: Float64Array | null } {
   const [from, to] = x.domain();
   const [first, last] = visibleRange(series, from, to);
   const count = last - first;
-  if (count <= 4 * columns) {
+  if (count <= 2 * columns) {
     return {
       x: series.x.subarray(first, last),
       y: series.y.subarray(first, last),
@@ -332,12 +334,12 @@ function decimate(series: PreparedSeries, x: Scale, columns: number): { x: Float
   const flush = (end: number) => {
     let lowest = start;
     let highest = start;
-    for (let i = start; i < end; i++) {
+    for (let i = start + 1; i < end; i++) {
       if (series.y[i] < series.y[lowest]) lowest = i;
       if (series.y[i] > series.y[highest]) highest = i;
     }
-    const chosen = [start, lowest, highest, end - 1].sort((a, b) => a - b);
-    for (const i of chosen) if (keep[keep.length - 1] !== i) keep.push(i);
+    keep.push(Math.min(lowest, highest));
+    if (lowest !== highest) keep.push(Math.max(lowest, highest));
   };
   for (let i = first + 1; i < last; i++) {
     const c = Math.floor(x(series.x[i]));

@@ -70,7 +70,7 @@ describe('SimulationTab and SpectraTab', () => {
     const fixture = await create(SpectraTab);
     expect(find(fixture, 'spectrum-chart')).toBeNull();
     (find(fixture, 'spectrum-run') as HTMLButtonElement).click();
-    await until(fixture, () => find(fixture, 'spectrum-chart') !== null);
+    await until(fixture, () => find(fixture, 'spectrum-chart')?.querySelector('path.line') != null);
     const chart = find(fixture, 'spectrum-chart') as HTMLElement;
     expect(chart.querySelectorAll('path.line').length).toBe(1);
     // lp runs at 64 x 50 kHz: f0 to 7 f0 all lie below its Nyquist frequency.

@@ -1,5 +1,5 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
@@ -18,6 +18,7 @@ import {
   type InputProfile,
   type SimulationOptionsInput,
 } from '@shared/contracts/simulation';
+import type { SimulationResult } from '@shared/engine/simulation/result';
 import { formatQuantity, parseQuantity, type DimensionName } from '@shared/units';
 import { map, startWith } from 'rxjs';
 import type { LineSeries } from '../../charts/chart-types';
@@ -123,6 +124,8 @@ export class SimulationTab {
     const result = this.result();
     return result === null ? [] : [...new Set([result.figures.rippleNode, result.output.node])];
   });
+  /** The result the charts draw: taken a task after the result arrives, so the figures show first and no task runs long. */
+  private readonly charted = signal<SimulationResult | null>(null);
   protected readonly voltageSeries = computed<LineSeries[]>(() => this.seriesOf((unit) => unit === 'V', 1));
   protected readonly inputSeries = computed<LineSeries[]>(() => this.seriesOf((unit) => unit !== 'V', this.design().sensor.mode === 'flow' ? 1e3 : 1));
   protected readonly inputLabel = computed(() => (this.design().sensor.mode === 'pressure' ? 'Pressure [Pa]' : 'Flow [L/s]'));
@@ -132,6 +135,11 @@ export class SimulationTab {
   });
 
   constructor() {
+    effect((onCleanup) => {
+      const result = this.result();
+      const timer = setTimeout(() => this.charted.set(result));
+      onCleanup(() => clearTimeout(timer));
+    });
     // Levels that depend on the sensor's span start at round parts of the full scale.
     effect(() => {
       const fullScale = this.design().sensor.fullScale;
@@ -168,7 +176,7 @@ export class SimulationTab {
   }
 
   private seriesOf(keep: (unit: string) => boolean, scale: number): LineSeries[] {
-    const result = this.result();
+    const result = this.charted();
     if (result === null) return [];
     const shown = new Set(this.shownNodes());
     return result.nodes

@@ -1,5 +1,6 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
@@ -8,17 +9,20 @@ import { MatOption, MatSelect } from '@angular/material/select';
 import type { Design } from '@shared/contracts/design';
 import type { Budget } from '@shared/contracts/figures';
 import { defaultSegmentLength } from '@shared/engine/simulation/measure';
-import { amplitudeSpectrum, welchPsd } from '@shared/engine/spectral/welch';
 import type { ChartMarker, LineSeries } from '../../charts/chart-types';
 import { LineChart } from '../../charts/line-chart';
 import { lastAnalogNode } from '../simulation-tab/recorded-nodes';
 import { SimulationSession } from '../simulation-tab/simulation-session';
+import type { SpectrumKind } from './spectrum-messages';
+import { observeVisibility } from './host-visibility';
+import { SpectrumRunner } from './spectrum-runner';
 
-type SpectrumKind = 'density' | 'amplitude';
 
 /** Segment lengths offered: 2^6 up to 2^18 samples, as far as the record reaches. */
 const SHORTEST_SEGMENT = 1 << 6;
 const LONGEST_SEGMENT = 1 << 18;
+/** The longest segment chosen unasked: 2^15 bins are plenty on a screen. */
+const LONGEST_DEFAULT_SEGMENT = 1 << 16;
 /** Carrier harmonics marked on the frequency axis. */
 const HARMONICS = 7;
 /** The run the tab starts when there is none: the noise of the chain at its operating point. */
@@ -37,6 +41,8 @@ const NOISE_RUN_SECONDS = 1;
 })
 export class SpectraTab {
   protected readonly session = inject(SimulationSession);
+  private readonly spectra = inject(SpectrumRunner);
+  private readonly visible = observeVisibility();
 
   readonly design = input.required<Design>();
   readonly budget = input.required<Budget>();
@@ -62,22 +68,33 @@ export class SpectraTab {
   });
   protected readonly segmentLength = linkedSignal(() => {
     const lengths = this.segmentLengths();
-    const preferred = Math.min(defaultSegmentLength(this.node()?.waveform?.length ?? 0), LONGEST_SEGMENT);
+    const preferred = Math.min(defaultSegmentLength(this.node()?.waveform?.length ?? 0), LONGEST_DEFAULT_SEGMENT);
     return lengths.includes(preferred) ? preferred : (lengths.at(-1) ?? null);
   });
   protected readonly kind = signal<SpectrumKind>('density');
 
+  /** The spectrum of the chosen node, computed in a worker once the tab is on screen; a new choice cancels the one in progress. */
+  protected readonly spectrumResource = rxResource({
+    params: () => {
+      if (!this.visible()) return undefined;
+      const node = this.node();
+      const segmentLength = this.segmentLength();
+      if (node === null || node.waveform === null || segmentLength === null || node.waveform.length < segmentLength) return undefined;
+      return { id: node.id, samples: node.waveform, sampleRate: node.sampleRate, segmentLength, kind: this.kind() };
+    },
+    stream: ({ params }) => this.spectra.spectrum(params.samples, params.sampleRate, params.segmentLength, params.kind),
+  });
   protected readonly spectrum = computed<LineSeries[]>(() => {
     const node = this.node();
-    const segment = this.segmentLength();
-    if (node === null || node.waveform === null || segment === null || node.waveform.length < segment) return [];
-    if (this.kind() === 'density') {
-      const { frequencies, psd } = welchPsd(node.waveform, node.sampleRate, segment);
-      return [{ name: node.id, x: frequencies, y: psd.map(Math.sqrt) }];
-    }
-    const { frequencies, amplitude } = amplitudeSpectrum(node.waveform, node.sampleRate, segment);
-    return [{ name: node.id, x: frequencies, y: amplitude }];
+    if (!this.spectrumResource.hasValue() || node === null) return [];
+    const { frequencies, values } = this.spectrumResource.value();
+    return [{ name: node.id, x: frequencies, y: values }];
   });
+  protected readonly spectrumError = computed(() => {
+    const error = this.spectrumResource.error();
+    return error === undefined ? null : error instanceof Error ? error.message : 'The spectrum could not be computed';
+  });
+
   protected readonly resolutionBandwidth = computed(() => {
     const node = this.node();
     const segment = this.segmentLength();
