@@ -17,6 +17,8 @@ import { buildOpenApiDocument } from './openapi/document';
 import { docsRouter } from './openapi/docs.router';
 import type { Operation } from './openapi/operation';
 import { auditRouter } from './audit/audit.router';
+import { datasetOperations } from './datasets/dataset.openapi';
+import { datasetRouter } from './datasets/dataset.router';
 import { designOperations } from './designs/design.openapi';
 import { designRouter } from './designs/design.router';
 import type { Outbox } from './mail/outbox';
@@ -36,7 +38,7 @@ export interface AppDeps {
   outbox?: Outbox | null;
 }
 
-export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations, ...reviewOperations];
+export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations, ...reviewOperations, ...datasetOperations];
 
 /** Builds the whole HTTP application; `api/main.ts` only listens. */
 export function createApp({ config, db, logger, version, outbox = null }: AppDeps): Express {
@@ -79,6 +81,7 @@ export function createApp({ config, db, logger, version, outbox = null }: AppDep
   api.use(authRouter(db, config));
   api.use(userRouter(db, config));
   api.use(designRouter(db, version));
+  api.use(datasetRouter(db));
   api.use(reviewRouter(db, config, outbox));
   api.use(auditRouter(db));
   api.use(reportRouter(db, version));

@@ -123,6 +123,35 @@ export interface AuditEventsTable {
   created_at: GeneratedTimestamp;
 }
 
+export interface CalibrationDatasetsTable {
+  id: Generated<string>;
+  design_id: string;
+  name: string;
+  notes: Generated<string>;
+  file_name: string;
+  file_content: Buffer;
+  mapping: ColumnType<Record<string, string>, string, string>;
+  reference_unit: string;
+  reference_display_unit: string;
+  readout_unit: string;
+  readout_display_unit: string;
+  point_count: number;
+  created_by: string;
+  created_at: GeneratedTimestamp;
+}
+
+export interface CalibrationPointsTable {
+  dataset_id: string;
+  position: number;
+  source_row: number;
+  cell: string;
+  run: string;
+  direction: 'up' | 'down';
+  reference: number;
+  readout: number;
+  time_s: number | null;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -134,6 +163,8 @@ export interface Database {
   outbox: OutboxTable;
   mailbox_messages: MailboxMessagesTable;
   audit_events: AuditEventsTable;
+  calibration_datasets: CalibrationDatasetsTable;
+  calibration_points: CalibrationPointsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
