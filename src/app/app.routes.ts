@@ -10,6 +10,11 @@ export const routes: Routes = [
     loadComponent: () => import('./sign-in/sign-in').then((m) => m.SignIn),
   },
   {
+    path: 'sign-up',
+    title: 'Create your reviewer account · Quietbridge',
+    loadComponent: () => import('./sign-up/sign-up').then((m) => m.SignUp),
+  },
+  {
     path: '',
     component: Shell,
     children: [
@@ -31,6 +36,24 @@ export const routes: Routes = [
         title: 'Compare versions · Quietbridge',
         canActivate: [authGuard],
         loadComponent: () => import('./compare/compare-page').then((m) => m.ComparePage),
+      },
+      {
+        path: 'reviews',
+        title: 'Reviews · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./reviews/reviews').then((m) => m.Reviews),
+      },
+      {
+        path: 'reviews/:id',
+        title: 'Review · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./reviews/review-page').then((m) => m.ReviewPage),
+      },
+      {
+        path: 'mailbox',
+        title: 'Mailbox · Quietbridge',
+        canActivate: [authGuard, roleGuard('admin')],
+        loadComponent: () => import('./mailbox/mailbox').then((m) => m.Mailbox),
       },
       {
         path: 'accounts',

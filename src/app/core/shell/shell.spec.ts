@@ -53,16 +53,16 @@ describe('Shell', () => {
     expect(fixture.nativeElement.querySelector('mat-toolbar').textContent).toContain('Quietbridge');
   });
 
-  it('should show Accounts to an administrator', async () => {
+  it('should show Accounts and Mailbox to an administrator', async () => {
     const fixture = await render(user('admin'));
-    expect(links(fixture.nativeElement)).toEqual(['Designs', 'Accounts', 'About']);
+    expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'Accounts', 'Mailbox', 'About']);
   });
 
-  it('should hide Accounts from designers and reviewers', async () => {
+  it('should hide Accounts and Mailbox from designers and reviewers, and show them Reviews', async () => {
     for (const role of ['designer', 'reviewer'] as const) {
       TestBed.resetTestingModule();
       const fixture = await render(user(role));
-      expect(links(fixture.nativeElement)).toEqual(['Designs', 'About']);
+      expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'About']);
     }
   });
 
