@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, ElementRef, ViewEncapsulation, afte
 import { axisBottom, max, min, scaleBand, scaleLinear, select } from 'd3';
 import { ChartExportMenu } from './chart-export-menu';
 import type { ChartTable } from './chart-export';
-import { siTick } from './chart-format';
+import { axisTickFormat, siTick } from './chart-format';
 import { observeWidth } from './chart-size';
 import type { BarDatum } from './chart-types';
 
@@ -87,7 +87,7 @@ export class BarChart {
   constructor() {
     afterRenderEffect(() => {
       const ticks = Math.max(2, Math.round(this.innerWidth() / 90));
-      select(this.axisRef().nativeElement).call(axisBottom(this.x()).ticks(ticks, '~s'));
+      select(this.axisRef().nativeElement).call(axisBottom(this.x()).ticks(ticks).tickFormat(axisTickFormat(this.x(), ticks)));
     });
   }
 }

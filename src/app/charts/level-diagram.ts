@@ -3,6 +3,7 @@ import { axisLeft, scaleBand, scaleLinear, select } from 'd3';
 import type { NodeLevel } from '@shared/contracts/figures';
 import { ChartExportMenu } from './chart-export-menu';
 import type { ChartTable } from './chart-export';
+import { axisTickFormat } from './chart-format';
 import { observeWidth } from './chart-size';
 
 const MARGIN = { top: 40, right: 16, bottom: 52, left: 64 };
@@ -104,7 +105,7 @@ export class LevelDiagram {
   constructor() {
     afterRenderEffect(() => {
       const ticks = Math.max(2, Math.round(this.innerHeight() / 50));
-      select(this.axisRef().nativeElement).call(axisLeft(this.y()).ticks(ticks, '~s'));
+      select(this.axisRef().nativeElement).call(axisLeft(this.y()).ticks(ticks).tickFormat(axisTickFormat(this.y(), ticks)));
     });
   }
 

@@ -3,7 +3,7 @@ import { MatButton } from '@angular/material/button';
 import { area, axisBottom, axisLeft, bisector, line, scaleLinear, scaleLog, select, zoom, zoomIdentity, type ScaleContinuousNumeric, type ZoomBehavior, type ZoomTransform } from 'd3';
 import { ChartExportMenu } from './chart-export-menu';
 import type { ChartTable } from './chart-export';
-import { cursorValue } from './chart-format';
+import { axisTickFormat, cursorValue } from './chart-format';
 import { observeWidth } from './chart-size';
 import type { AxisScale, ChartMarker, LineSeries, PickedPoint } from './chart-types';
 
@@ -197,8 +197,8 @@ export class LineChart {
       const y = this.y();
       const ticksX = Math.max(2, Math.round(this.innerWidth() / 90));
       const ticksY = Math.max(2, Math.round(this.innerHeight() / 50));
-      select(this.xAxisRef().nativeElement).call(axisBottom(x).ticks(ticksX, '~s'));
-      select(this.yAxisRef().nativeElement).call(axisLeft(y).ticks(ticksY, '~s'));
+      select(this.xAxisRef().nativeElement).call(axisBottom(x).ticks(ticksX).tickFormat(axisTickFormat(x, ticksX)));
+      select(this.yAxisRef().nativeElement).call(axisLeft(y).ticks(ticksY).tickFormat(axisTickFormat(y, ticksY)));
       select(this.xGridRef().nativeElement)
         .call(axisBottom(x).ticks(ticksX).tickSize(-this.innerHeight()).tickFormat(() => ''))
         .call((grid) => grid.select('.domain').remove());

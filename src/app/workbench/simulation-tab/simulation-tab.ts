@@ -131,7 +131,7 @@ export class SimulationTab {
   protected readonly inputLabel = computed(() => (this.design().sensor.mode === 'pressure' ? 'Pressure [Pa]' : 'Flow [L/s]'));
   protected readonly agreement = computed(() => {
     const result = this.result();
-    return result === null ? [] : agreementRows(result, this.budget()).map((row) => ({ ...row, disagrees: row.relative !== null && row.relative > DISAGREEMENT }));
+    return result === null ? [] : agreementRows(result, this.budget(), this.design().sensor.fullScale).map((row) => ({ ...row, disagrees: row.relative !== null && row.relative > DISAGREEMENT }));
   });
 
   constructor() {

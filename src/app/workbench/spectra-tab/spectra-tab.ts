@@ -1,5 +1,5 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
@@ -43,6 +43,8 @@ export class SpectraTab {
   protected readonly session = inject(SimulationSession);
   private readonly spectra = inject(SpectrumRunner);
   private readonly visible = observeVisibility();
+  /** True from the first time the tab is on screen: a spectrum once computed stays while the designer looks at other tabs. */
+  private readonly opened = signal(false);
 
   readonly design = input.required<Design>();
   readonly budget = input.required<Budget>();
@@ -76,7 +78,7 @@ export class SpectraTab {
   /** The spectrum of the chosen node, computed in a worker once the tab is on screen; a new choice cancels the one in progress. */
   protected readonly spectrumResource = rxResource({
     params: () => {
-      if (!this.visible()) return undefined;
+      if (!this.opened()) return undefined;
       const node = this.node();
       const segmentLength = this.segmentLength();
       if (node === null || node.waveform === null || segmentLength === null || node.waveform.length < segmentLength) return undefined;
@@ -110,6 +112,12 @@ export class SpectraTab {
   });
   protected readonly yLabel = computed(() => (this.kind() === 'density' ? 'Noise density [V/√Hz]' : 'Amplitude [V peak]'));
   protected readonly yUnit = computed(() => (this.kind() === 'density' ? 'V/√Hz' : 'V'));
+
+  constructor() {
+    effect(() => {
+      if (this.visible()) untracked(() => this.opened.set(true));
+    });
+  }
 
   protected runNoiseSimulation(): void {
     const design = this.design();
