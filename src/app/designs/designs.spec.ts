@@ -7,6 +7,8 @@ import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
 import type { DesignList, DesignSummary, KeyFigures } from '@shared/contracts/designs-api';
 import { Designs } from './designs';
+import { of } from 'rxjs';
+import { ReviewsApi } from '../reviews/reviews-api';
 
 const person = { id: '00000000-0000-4000-8000-000000000002', displayName: 'Demo Designer', email: 'designer@example.com' };
 
@@ -68,7 +70,8 @@ describe('Designs', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [Designs],
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+      // The review state chip of each row has its own spec; here it finds no reviews.
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting(), { provide: ReviewsApi, useValue: { ofDesign: () => of([]) } }],
     });
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(Designs);

@@ -38,6 +38,7 @@ import { ArchivedFilter, DesignListQuery, DesignSortKey, DesignsApi } from './de
 import { ImportProblemsDialog, type ImportProblems } from './import-problems-dialog';
 import { headroomText, noiseText, resolutionText } from './key-figures';
 import { NewDesignDialog } from './new-design-dialog';
+import { DesignReviewState } from '../reviews/design-review-state';
 
 const SORTABLE = new Set<string>(['name', 'latestVersion', 'updatedAt', 'createdAt']);
 
@@ -46,6 +47,7 @@ const SORTABLE = new Set<string>(['name', 'latestVersion', 'updatedAt', 'created
   selector: 'qb-designs',
   imports: [
     DatePipe,
+    DesignReviewState,
     MatButton,
     MatButtonToggle,
     MatButtonToggleGroup,
@@ -89,7 +91,7 @@ export class Designs {
   private readonly snackBar = inject(MatSnackBar);
   private readonly router = inject(Router);
 
-  protected readonly columns = ['name', 'latestVersion', 'resolution', 'noise', 'headroom', 'findings', 'updatedAt', 'actions'];
+  protected readonly columns = ['name', 'latestVersion', 'review', 'resolution', 'noise', 'headroom', 'findings', 'updatedAt', 'actions'];
   protected readonly pageSizes = [10, 20, 50, 100];
   protected readonly search = new FormControl('', { nonNullable: true });
   protected readonly query = signal<DesignListQuery>({ page: 0, pageSize: 20, sort: 'updatedAt', order: 'desc', q: '', archived: 'false' });

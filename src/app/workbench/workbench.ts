@@ -1,7 +1,7 @@
 import { DatePipe } from '@angular/common';
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, computed, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { rxResource, takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { ErrorStateMatcher } from '@angular/material/core';
 import { MatDialog } from '@angular/material/dialog';
@@ -16,11 +16,15 @@ import type { DesignSummary, Version, VersionSummary } from '@shared/contracts/d
 import type { Finding } from '@shared/contracts/findings';
 import { analyseDesign } from '@shared/engine/analyse';
 import { formatQuantity } from '@shared/units/format';
-import { debounceTime, firstValueFrom } from 'rxjs';
+import { catchError, debounceTime, firstValueFrom, of } from 'rxjs';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
 import { downloadDocument, exportFileName } from '../designs/design-file';
 import { DesignsApi } from '../designs/designs-api';
+import { AuditTrail } from '../reviews/audit-trail';
+import { latestReviewByVersion } from '../reviews/design-review-state';
+import { reportUrl, ReviewsApi } from '../reviews/reviews-api';
+import { ShareDialog, type ShareRequest } from '../reviews/share-dialog';
 import { BudgetTab } from './budget-tab/budget-tab';
 import { ChainTab } from './chain-tab/chain-tab';
 import { controlAtPath, createDesignForm, documentOf, loadIntoForm, type DesignForm } from './design-form';
@@ -52,7 +56,7 @@ function designFrom(document: Record<string, unknown>): Design {
 /** The design workbench: chain forms, live budget and levels, simulation, spectra and sweeps, versions. */
 @Component({
   selector: 'qb-workbench',
-  imports: [BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, SimulationTab, SpectraTab, SweepTab, VersionHistory],
+  imports: [AuditTrail, BudgetTab, ChainTab, DatePipe, LevelsTab, MatButton, MatIcon, MatProgressBar, MatTab, MatTabGroup, MatTooltip, RouterLink, SimulationTab, SpectraTab, SweepTab, VersionHistory],
   templateUrl: './workbench.html',
   styleUrl: './workbench.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -62,6 +66,7 @@ export class Workbench {
   private readonly designs = inject(DesignsApi);
   private readonly drafts = inject(DraftStore);
   private readonly dialog = inject(MatDialog);
+  private readonly reviewsApi = inject(ReviewsApi);
   private readonly snackBar = inject(MatSnackBar);
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly destroyRef = inject(DestroyRef);
@@ -90,6 +95,13 @@ export class Workbench {
   });
   protected readonly latestVersion = computed(() => this.summary()?.latestVersion ?? null);
   protected readonly canSave = computed(() => this.dirty() && this.evaluation.inputValid() && !this.saving() && !(this.summary()?.archived ?? false));
+  /** The reviews of this design's versions; a user who may not list them sees no review states. */
+  protected readonly reviews = rxResource({ params: () => this.id(), stream: ({ params }) => this.reviewsApi.ofDesign(params).pipe(catchError(() => of([]))) });
+  protected readonly reviewsByVersion = computed(() => latestReviewByVersion(this.reviews.hasValue() ? this.reviews.value() : []));
+  protected readonly reportLink = computed(() => {
+    const version = this.editedVersion();
+    return version === null ? null : reportUrl(this.id(), version);
+  });
   protected readonly fileName = computed(() => exportFileName(this.summary()?.name ?? 'design', this.editedVersion() ?? 0).replace(/\.json$/, ''));
   protected readonly stateText = computed(() => {
     if (!this.evaluation.inputValid()) return 'Input not valid';
@@ -213,6 +225,16 @@ export class Workbench {
     } catch (error) {
       this.snackBar.open(problemFrom(error).detail, 'Close', { duration: 8000, panelClass: 'qb-snack-error' });
     }
+  }
+
+  protected shareForReview(): void {
+    const version = this.editedVersion();
+    if (version === null) return;
+    const data: ShareRequest = { designId: this.id(), designName: this.summary()?.name ?? '', versionNumber: version };
+    this.dialog
+      .open(ShareDialog, { width: '520px', data })
+      .afterClosed()
+      .subscribe(() => this.reviews.reload());
   }
 
   protected saveVersion(): void {
