@@ -38,6 +38,18 @@ export const routes: Routes = [
         loadComponent: () => import('./compare/compare-page').then((m) => m.ComparePage),
       },
       {
+        path: 'designs/:id/calibration',
+        title: 'Calibration · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./calibration/calibration-page').then((m) => m.CalibrationPage),
+      },
+      {
+        path: 'calibration',
+        title: 'Calibration · Quietbridge',
+        canActivate: [authGuard],
+        loadComponent: () => import('./calibration/calibration-page').then((m) => m.CalibrationPage),
+      },
+      {
         path: 'reviews',
         title: 'Reviews · Quietbridge',
         canActivate: [authGuard],
