@@ -83,7 +83,7 @@ export const budgetSchema = z
     levels: z.array(nodeLevelSchema),
     closestToClipping: z.string().nullable().describe('Node with the largest used fraction; null when no node has a swing'),
     ripple: z.object({
-      outputPeak: figure('Carrier ripple at the chain output at full scale [V peak], from its components at 2 f0, 4 f0, ...'),
+      outputPeak: figure('Carrier ripple at the chain output at full scale [V peak]: the peak of the summed waveform of its components at 2 f0, 4 f0, ..., 16 f0'),
       frequency: figure('Lowest ripple frequency, 2 f0 [Hz]'),
     }),
     stepResponse: z.object({

@@ -11,7 +11,7 @@ import { carrierHarmonics, KEPT_HARMONICS, MAX_DEMODULATOR_HARMONICS } from './c
 import { levelFindings, nodeLevel } from './levels';
 import { referToInput } from './input-referred';
 import { integrateNoise, MAX_FOLDED_HARMONICS, type PlacedSource } from './noise-integration';
-import { rippleComponents } from './ripple';
+import { rippleComponents, ripplePeak } from './ripple';
 import { stepResponseMetrics } from './step-response';
 
 export interface BudgetOptions {
@@ -136,10 +136,24 @@ export function evaluateBudget(design: Design, options: BudgetOptions = {}): Bud
   const last = (pre.length - 1) * KEPT_HARMONICS;
   const components = rippleComponents(harmonics.re.subarray(last, last + KEPT_HARMONICS), harmonics.im.subarray(last, last + KEPT_HARMONICS), phase);
   const carrierScale = vm * largestDifference * preGain;
+  // Each component through the first `count` baseband stages (complex, so that phases add right).
+  const filteredRe = new Float64Array(components.re.length);
+  const filteredIm = new Float64Array(components.re.length);
+  const value = { re: 0, im: 0 };
   const rippleAt = (count: number) => {
-    let sum = 0;
-    for (let i = 0; i < components.length; i++) sum += components[i] * postGainAt(count, 2 * (i + 1) * carrier);
-    return carrierScale * sum;
+    for (let i = 0; i < components.re.length; i++) {
+      value.re = components.re[i];
+      value.im = components.im[i];
+      const f = 2 * (i + 1) * carrier;
+      let gain = 1;
+      for (let j = 0; j < count; j++) {
+        post[j].multiplyResponse(f, value);
+        gain *= post[j].flatGain;
+      }
+      filteredRe[i] = value.re * gain;
+      filteredIm[i] = value.im * gain;
+    }
+    return carrierScale * ripplePeak(filteredRe, filteredIm);
   };
 
   // Levels at every node.

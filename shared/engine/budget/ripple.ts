@@ -1,15 +1,20 @@
 /** Ripple components summed: 2 f0, 4 f0, ..., 2 RIPPLE_COMPONENTS f0. */
 export const RIPPLE_COMPONENTS = 8;
 
+/** Points per ripple period at which the summed ripple waveform is searched for its peak. */
+const PEAK_SEARCH_POINTS = 512;
+
 /**
- * Amplitudes |C_n| of the demodulator output at n f0 (n = 2, 4, ...) for a unit square-wave input,
+ * Complex amplitudes C_n of the demodulator output at n f0 (n = 2, 4, ...) for a unit square-wave
+ * input, so that the ripple is r(t) = sum over n of Re(C_n e^(j n 2 pi f0 t)),
  * from the carrier's harmonics V_k = (4 / pi k)(-j) H_k and the reference's R_m = (4 / pi m)(-j) e^(j m phi):
  * the product of Re(V e^(jkwt)) and Re(R e^(jmwt)) puts (V R + V R* + V* R)/2 at k + m and |k - m|.
  * Index i of the result holds n = 2 (i + 1).
  */
-export function rippleComponents(re: Float64Array, im: Float64Array, phase: number): Float64Array {
+export function rippleComponents(re: Float64Array, im: Float64Array, phase: number): { re: Float64Array; im: Float64Array } {
   const count = re.length;
-  const out = new Float64Array(RIPPLE_COMPONENTS);
+  const outRe = new Float64Array(RIPPLE_COMPONENTS);
+  const outIm = new Float64Array(RIPPLE_COMPONENTS);
   // V_k = (4/(pi k)) (-j) H_k = (4/(pi k)) (im - j re)
   const vRe = (h: number) => (4 / (Math.PI * (2 * h + 1))) * im[h];
   const vIm = (h: number) => (-4 / (Math.PI * (2 * h + 1))) * re[h];
@@ -39,7 +44,27 @@ export function rippleComponents(re: Float64Array, im: Float64Array, phase: numb
       sRe += vRe(h) * rRe(m) + vIm(h) * rIm(m);
       sIm += vRe(h) * rIm(m) - vIm(h) * rRe(m);
     }
-    out[i] = 0.5 * Math.hypot(sRe, sIm);
+    outRe[i] = 0.5 * sRe;
+    outIm[i] = 0.5 * sIm;
   }
-  return out;
+  return { re: outRe, im: outIm };
+}
+
+/**
+ * Peak of |r(t)| for r(t) = sum over i of Re(A_i e^(j (i + 1) theta)), theta over one period of the
+ * lowest ripple component (2 f0). The components are not in phase, so the sum of their amplitudes
+ * is only an upper bound; the peak of the summed waveform is what a scope shows.
+ */
+export function ripplePeak(re: Float64Array, im: Float64Array): number {
+  let peak = 0;
+  for (let p = 0; p < PEAK_SEARCH_POINTS; p++) {
+    const theta = (2 * Math.PI * p) / PEAK_SEARCH_POINTS;
+    let value = 0;
+    for (let i = 0; i < re.length; i++) {
+      const angle = (i + 1) * theta;
+      value += re[i] * Math.cos(angle) - im[i] * Math.sin(angle);
+    }
+    peak = Math.max(peak, Math.abs(value));
+  }
+  return peak;
 }
