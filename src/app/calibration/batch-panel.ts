@@ -9,7 +9,7 @@ import type { Dataset } from '@shared/contracts/calibration';
 import { evaluateBatch, sweepBatchSize, type BatchEvaluation, type BatchSizeRow, type TrimMode } from '@shared/engine/calibration/batch';
 import { BarChart } from '../charts/bar-chart';
 import type { BarDatum } from '../charts/chart-types';
-import { enginePoints, figure } from './display-units';
+import { displayUnits, enginePoints, figure } from './display-units';
 
 const trimNames: Record<TrimMode, string> = { none: 'no trim', offset: 'one-point offset trim', 'gain-offset': 'two-point gain and offset trim' };
 
@@ -35,6 +35,7 @@ export class BatchPanel {
   protected readonly sweep = signal<BatchSizeRow[] | null>(null);
   protected readonly problem = signal<string | null>(null);
 
+  protected readonly units = computed(() => displayUnits(this.dataset()));
   private readonly points = computed(() => enginePoints(this.dataset()));
   protected readonly sweepBars = computed((): BarDatum[] =>
     (this.sweep() ?? []).map((row) => ({

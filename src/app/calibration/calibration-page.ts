@@ -45,7 +45,7 @@ export class CalibrationPage {
       this.datasets.set([]);
       this.selected.set(null);
       if (id === undefined) {
-        this.designsApi.list({ page: 1, pageSize: 100, sort: 'name', order: 'asc', q: '', archived: 'false' }).subscribe({
+        this.designsApi.list({ page: 0, pageSize: 200, sort: 'name', order: 'asc', q: '', archived: 'false' }).subscribe({
           next: (list) => this.designs.set(list.items),
           error: (error: unknown) => this.problem.set(problemFrom(error).detail),
         });
