@@ -38,6 +38,12 @@ describe('compareVersions: fields', () => {
     expect(fields).toHaveLength(4);
   });
 
+  it('reads a range in a description as no unit: the trim DAC bits stay a bare number', () => {
+    const newer = demoDocument();
+    newer.excitation.trimBits = 10;
+    expect(compareVersions(demoDocument(), newer).fields).toEqual([expect.objectContaining({ path: 'excitation.trimBits', units: [], oldText: '12', newText: '10' })]);
+  });
+
   it('gives a flow-mode full scale in L/s and coefficients with their own units', () => {
     const newer = demoDocument('flow');
     newer.sensor.fullScale = 1e-8;
@@ -109,6 +115,13 @@ describe('compareVersions: figures', () => {
     expect(figures.get('ripple')).toMatchObject({ direction: 'better' });
     expect(figures.get('resolutionCapacitance')).toMatchObject({ direction: 'better' });
     expect(figures.get('worstHeadroom')!.newText).toMatch(/^[\d.]+ % at \w+$/);
+  });
+
+  it('counts a change below 0.1 % as the same', () => {
+    const newer = demoDocument();
+    newer.chain[1].gainBandwidth = 5.00001e7;
+    const figures = compareVersions(demoDocument(), newer).figures;
+    expect(figures.every((figure) => figure.direction === 'same')).toBe(true);
   });
 
   it('shows the flow resolution in L/s for a flow design', () => {

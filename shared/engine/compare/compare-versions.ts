@@ -75,8 +75,8 @@ export interface VersionComparison {
 
 type Document = Record<string, unknown>;
 
-/** Relative change below which two figures count as the same (rounding in storage and arithmetic). */
-const SAME_WITHIN = 1e-9;
+/** Relative change below which two figures count as the same: it would not show in the three digits the figures are read in. */
+const SAME_WITHIN = 1e-3;
 
 function isNumberList(value: unknown): value is number[] {
   return Array.isArray(value) && value.every((item) => typeof item === 'number');

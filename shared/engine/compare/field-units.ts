@@ -71,12 +71,12 @@ function fromDescription(description: string | undefined, key: string, mode: str
   // A description that opens with a formula rather than a name ("c1, c2, c3 of dC = ...") is labelled by its key.
   const label = head.length > 0 && head.length <= 40 && !head.includes('=') ? head : key;
   const bracket = /\[([^\]]+)\]/.exec(description)?.[1];
-  if (bracket === undefined) return { label, units: [] };
-  const units = bracket.split(',').map((unit) => {
+  const units = (bracket ?? '').split(',').map((unit) => {
     const trimmed = unit.trim();
     return trimmed === 'Pa or m^3/s' ? (mode === 'flow' ? 'm^3/s' : 'Pa') : trimmed;
   });
-  return { label, units };
+  // A bracket of numbers is a range in the text ("spanning [0, 2]"), not a unit.
+  return bracket === undefined || units.some((unit) => !/[A-Za-z]/.test(unit)) ? { label, units: [] } : { label, units };
 }
 
 /**

@@ -10,9 +10,11 @@ export interface CommentAnchor {
 
 const sectionLabels: Record<string, string> = { sensor: 'Sensor', excitation: 'Excitation', environment: 'Environment', analysis: 'Analysis' };
 
+/** A camel-case key in words, single letters kept as capitals: "referenceCapacitanceA" -> "Reference capacitance A". */
 function words(key: string): string {
-  const spaced = key.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
-  return spaced.charAt(0).toUpperCase() + spaced.slice(1);
+  const parts = key.split(/(?=[A-Z])/).map((part) => (part.length === 1 ? part : part.toLowerCase()));
+  const text = parts.join(' ');
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
 /** Leaf keys of a section, nested ones with their parent ("cellA.baseCapacitance"). */

@@ -1,7 +1,7 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, output, signal, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
@@ -42,6 +42,7 @@ const MAX_INDENT = 3;
 })
 export class CommentThread {
   private readonly api = inject(ReviewsApi);
+  private readonly formDirective = viewChild(FormGroupDirective);
 
   readonly reviewId = input.required<string>();
   readonly comments = input.required<readonly ReviewComment[]>();
@@ -109,7 +110,8 @@ export class CommentThread {
     const comment: CreateComment = { body };
     if (stage !== '') comment.stage = stage;
     if (stage !== '' && field !== '') comment.field = field;
-    this.post(comment, () => this.form.reset(), this.form);
+    // Resetting through the directive also clears its submitted state, so the empty field shows no error.
+    this.post(comment, () => this.formDirective()?.resetForm({ stage: '', field: '', body: '' }), this.form);
   }
 
   protected startReply(comment: ReviewComment): void {
