@@ -55,14 +55,14 @@ describe('Shell', () => {
 
   it('should show Accounts and Mailbox to an administrator', async () => {
     const fixture = await render(user('admin'));
-    expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'Accounts', 'Mailbox', 'About']);
+    expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'Calibration', 'Accounts', 'Mailbox', 'About']);
   });
 
   it('should hide Accounts and Mailbox from designers and reviewers, and show them Reviews', async () => {
     for (const role of ['designer', 'reviewer'] as const) {
       TestBed.resetTestingModule();
       const fixture = await render(user(role));
-      expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'About']);
+      expect(links(fixture.nativeElement)).toEqual(['Designs', 'Reviews', 'Calibration', 'About']);
     }
   });
 
