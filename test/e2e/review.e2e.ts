@@ -185,6 +185,7 @@ describe('review of a design version in the browser', () => {
     await expect.poll(() => page.locator('mat-error').allTextContents()).toEqual(['A password needs at least 10 characters.', 'The two passwords differ.']);
     await page.getByLabel('Password', { exact: true }).fill('quiet-bridge-review-2026');
     await page.getByLabel('Confirm password').fill('quiet-bridge-review-2026');
+    await expect.poll(() => page.locator('mat-error').count()).toBe(0);
     await shot(page, 'review-sign-up');
     await page.getByTestId('create-account').click();
     await page.waitForURL(/\/reviews\/[0-9a-f-]{36}$/);

@@ -26,7 +26,7 @@ export interface ShareRequest {
     @if (shared(); as review) {
       <mat-dialog-content>
         <p class="result" data-testid="share-result">
-          <mat-icon>{{ review.notification === 'sent' ? 'mark_email_read' : 'schedule_send' }}</mat-icon>
+          <mat-icon>{{ review.notification === 'sent' ? 'check_circle' : 'schedule' }}</mat-icon>
           <span>
             Version {{ review.versionNumber }} of {{ review.design.name }} is shared with {{ review.reviewerEmail }}.
             @if (review.notification === 'sent') {
@@ -96,6 +96,9 @@ export interface ShareRequest {
       display: flex;
       gap: 12px;
       align-items: flex-start;
+    }
+    .result mat-icon {
+      flex: none;
     }
     .alert {
       padding: 8px 12px;
