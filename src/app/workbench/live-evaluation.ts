@@ -5,12 +5,12 @@ import type { Design } from '@shared/contracts/design';
 import type { Budget } from '@shared/contracts/figures';
 import type { FieldError } from '@shared/contracts/problem';
 import { analyseDesign } from '@shared/engine/analyse';
-import { animationFrameScheduler, debounceTime, startWith } from 'rxjs';
+import { asapScheduler, debounceTime, startWith } from 'rxjs';
 import { controlAtPath, documentOf, type DesignForm } from './design-form';
 
 /**
- * The analytic budget of the design being edited, recomputed on the main thread in the animation
- * frame after a change. Input that does not validate keeps the last good budget and lists the errors.
+ * The analytic budget of the design being edited, recomputed on the main thread right after a change
+ * (in the microtask after the input event, well before the next frame is painted). Input that does not validate keeps the last good budget and lists the errors.
  */
 @Injectable()
 export class LiveEvaluation {
@@ -30,13 +30,13 @@ export class LiveEvaluation {
 
   private marked = new Set<AbstractControl>();
 
-  /** Evaluates the form now, then again in the animation frame after each change (many changes in one frame, one evaluation). */
+  /** Evaluates the form now, then again after each change; the changes of one task (a patch of many fields) give one evaluation. */
   attach(form: DesignForm): void {
     form.valueChanges
-      .pipe(startWith(null), debounceTime(0, animationFrameScheduler), takeUntilDestroyed(this.destroyRef))
+      .pipe(startWith(null), debounceTime(0, asapScheduler), takeUntilDestroyed(this.destroyRef))
       .subscribe(() => {
         this.evaluate(form);
-        // Render now, inside this frame, rather than in a task after it: the figures are painted in the frame that computed them.
+        // Render now rather than in a later task: the figures reach the page before the next frame is painted.
         this.appRef.tick();
       });
   }
