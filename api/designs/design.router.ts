@@ -1,15 +1,13 @@
 import { Router, type Request } from 'express';
 import type { Kysely } from 'kysely';
 import { z } from 'zod';
-import { loadDesign } from '@shared/contracts/design-loader';
-import { DESIGN_FORMAT_VERSION } from '@shared/contracts/design';
 import { createDesignSchema, listDesignsQuerySchema, saveVersionSchema, updateDesignSchema } from '@shared/contracts/designs-api';
 import { requireRole } from '../auth/authenticate';
 import type { Database } from '../db/database';
 import { badRequest, HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { appendVersion, findDesign, findVersion, insertDesign, listDesigns, listVersions, updateDesign, type DesignScope, type NewVersion } from './design.repository';
-import { computeKeyFigures } from './key-figures';
+import { newVersion } from './new-version';
 
 const designIdSchema = z.object({ id: z.string().uuid('Design id must be a UUID') });
 const versionPathSchema = designIdSchema.extend({
@@ -21,21 +19,12 @@ function scopeOf(req: Request): DesignScope {
   return { userId: user.id, seesAll: user.role === 'admin', seesOwn: user.role === 'designer' || user.role === 'admin' };
 }
 
-/** Validates (upgrading older formats) and computes the key figures; a bad document is a 400 naming each field. */
+/** The version to store, or a 400 naming each field of the document that is wrong. */
 function prepareVersion(document: unknown, message: string, authorId: string, engineVersion: string): NewVersion {
-  const loaded = loadDesign(document);
-  if (!loaded.ok) {
-    const errors = loaded.errors.map((error) => ({ path: error.path ? `document.${error.path}` : 'document', message: error.message }));
-    throw badRequest(`The design document is not valid: ${errors[0]!.path}: ${errors[0]!.message}.`, errors);
-  }
-  return {
-    document: loaded.design as unknown as Record<string, unknown>,
-    message,
-    authorId,
-    formatVersion: DESIGN_FORMAT_VERSION,
-    engineVersion,
-    figures: computeKeyFigures(loaded.design),
-  };
+  const prepared = newVersion(document, message, authorId, engineVersion);
+  if (prepared.ok) return prepared.version;
+  const errors = prepared.errors.map((error) => ({ path: error.path ? `document.${error.path}` : 'document', message: error.message }));
+  throw badRequest(`The design document is not valid: ${errors[0]!.path}: ${errors[0]!.message}.`, errors);
 }
 
 const noSuchDesign = () => notFound('No design with this id, or it is not shared with you.');

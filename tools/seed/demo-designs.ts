@@ -1,11 +1,9 @@
 import type { Kysely } from 'kysely';
-import { DESIGN_FORMAT_VERSION } from '@shared/contracts/design';
-import { loadDesign } from '@shared/contracts/design-loader';
 import demoFlow from '@shared/examples/demo-flow.json';
 import demoPressure from '@shared/examples/demo-pressure.json';
 import type { Database } from '../../api/db/database';
 import { appendVersion, insertDesign, type NewVersion } from '../../api/designs/design.repository';
-import { computeKeyFigures } from '../../api/designs/key-figures';
+import { newVersion } from '../../api/designs/new-version';
 import { findUserByEmail } from '../../api/users/user.repository';
 
 type Document = Record<string, unknown> & { excitation: Record<string, unknown>; chain: Array<Record<string, unknown>> };
@@ -49,16 +47,9 @@ function demoHistories(): Array<{ name: string; versions: Array<{ message: strin
 }
 
 function prepared(document: Document, message: string, authorId: string, engineVersion: string): NewVersion {
-  const loaded = loadDesign(document);
-  if (!loaded.ok) throw new Error(`demo design "${message}" is not valid: ${loaded.errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`);
-  return {
-    document: loaded.design as unknown as Record<string, unknown>,
-    message,
-    authorId,
-    formatVersion: DESIGN_FORMAT_VERSION,
-    engineVersion,
-    figures: computeKeyFigures(loaded.design),
-  };
+  const result = newVersion(document, message, authorId, engineVersion);
+  if (!result.ok) throw new Error(`demo design "${message}" is not valid: ${result.errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`);
+  return result.version;
 }
 
 /** Adds the demo designer's designs when that account has none of that name; never touches existing ones. */
