@@ -4,6 +4,17 @@ export const RIPPLE_COMPONENTS = 8;
 /** Points per ripple period at which the summed ripple waveform is searched for its peak. */
 const PEAK_SEARCH_POINTS = 512;
 
+/** cos and sin of (i + 1) theta on the search grid, computed once: the peak search then only multiplies and adds. */
+const COSINES = new Float64Array(PEAK_SEARCH_POINTS * RIPPLE_COMPONENTS);
+const SINES = new Float64Array(PEAK_SEARCH_POINTS * RIPPLE_COMPONENTS);
+for (let p = 0; p < PEAK_SEARCH_POINTS; p++) {
+  for (let i = 0; i < RIPPLE_COMPONENTS; i++) {
+    const angle = ((i + 1) * 2 * Math.PI * p) / PEAK_SEARCH_POINTS;
+    COSINES[p * RIPPLE_COMPONENTS + i] = Math.cos(angle);
+    SINES[p * RIPPLE_COMPONENTS + i] = Math.sin(angle);
+  }
+}
+
 /**
  * Complex amplitudes C_n of the demodulator output at n f0 (n = 2, 4, ...) for a unit square-wave
  * input, so that the ripple is r(t) = sum over n of Re(C_n e^(j n 2 pi f0 t)),
@@ -56,14 +67,12 @@ export function rippleComponents(re: Float64Array, im: Float64Array, phase: numb
  * is only an upper bound; the peak of the summed waveform is what a scope shows.
  */
 export function ripplePeak(re: Float64Array, im: Float64Array): number {
+  const count = Math.min(re.length, RIPPLE_COMPONENTS);
   let peak = 0;
   for (let p = 0; p < PEAK_SEARCH_POINTS; p++) {
-    const theta = (2 * Math.PI * p) / PEAK_SEARCH_POINTS;
+    const row = p * RIPPLE_COMPONENTS;
     let value = 0;
-    for (let i = 0; i < re.length; i++) {
-      const angle = (i + 1) * theta;
-      value += re[i] * Math.cos(angle) - im[i] * Math.sin(angle);
-    }
+    for (let i = 0; i < count; i++) value += re[i] * COSINES[row + i] - im[i] * SINES[row + i];
     peak = Math.max(peak, Math.abs(value));
   }
   return peak;
