@@ -30,16 +30,37 @@ server.on('error', (error) => {
   process.exit(1);
 });
 
+/**
+ * Requests already sent may still wait, unaccepted or unread, while the process is busy (a report
+ * being drawn); close() would reset such a connection, taking it for an idle one. So before closing,
+ * the server reads on for a moment and for a few turns of the event loop (each turn accepts and
+ * reads what is pending), which makes those requests in flight, and close() lets them finish.
+ */
+const SHUTDOWN_READ_MS = 500;
+const SHUTDOWN_READ_TURNS = 3;
+let shuttingDown = false;
+
+async function readPendingRequests() {
+  await new Promise((resolve) => setTimeout(resolve, SHUTDOWN_READ_MS));
+  for (let turn = 0; turn < SHUTDOWN_READ_TURNS; turn += 1) await new Promise((resolve) => setImmediate(resolve));
+}
+
 function shutDown(signal: string) {
+  if (shuttingDown) return;
+  shuttingDown = true;
   logger.info({ signal }, 'shutting down: finishing requests in flight');
-  server.close(() => {
-    void outbox
-      .stop()
-      .then(() => db.destroy())
-      .finally(() => process.exit(0));
-  });
-  server.closeIdleConnections();
   setTimeout(() => process.exit(1), 10_000).unref();
+  void readPendingRequests().then(() => {
+    // Connections that finish their request after close() would otherwise linger for the keep-alive timeout.
+    const sweep = setInterval(() => server.closeIdleConnections(), 100);
+    server.close(() => {
+      clearInterval(sweep);
+      void outbox
+        .stop()
+        .then(() => db.destroy())
+        .finally(() => process.exit(0));
+    });
+  });
 }
 process.on('SIGTERM', () => shutDown('SIGTERM'));
 process.on('SIGINT', () => shutDown('SIGINT'));

@@ -181,8 +181,16 @@ export function createDatabase(connectionString: string, options: { max?: number
     max: options.max ?? 10,
     connectionTimeoutMillis: 5000,
     idleTimeoutMillis: 30000,
+    // No request waits on the database for long: the server cancels a statement after 5 s (a lock
+    // wait included), and the client gives up on one that gets no answer at all (a server that
+    // froze or a link that died with the connection open) a second later.
+    statement_timeout: 5000,
+    query_timeout: 6000,
   });
-  // An idle client losing its server (database restart) must not crash the process.
+  // A client losing its server (database restart) must not crash the process: the pool covers idle
+  // clients, the listener below those checked out between two queries (inside a transaction, say).
+  // The query in progress, if any, still fails, and the pool drops the client when it is released.
   pool.on('error', () => undefined);
+  pool.on('connect', (client) => client.on('error', () => undefined));
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }

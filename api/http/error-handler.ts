@@ -1,14 +1,15 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { HttpProblem } from './problem';
 
-const DATABASE_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08003', '08006']);
+// 57014: a statement cancelled by statement_timeout, i.e. the database too slow to answer.
+const DATABASE_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57014', '57P01', '57P02', '57P03', '08000', '08003', '08006']);
 
 function isDatabaseUnavailable(error: unknown): boolean {
   if (!error || typeof error !== 'object') return false;
   const code = (error as { code?: unknown }).code;
   if (typeof code === 'string' && DATABASE_DOWN_CODES.has(code)) return true;
   const message = (error as { message?: unknown }).message;
-  return typeof message === 'string' && /Connection terminated|timeout exceeded when trying to connect/i.test(message);
+  return typeof message === 'string' && /Connection terminated|timeout exceeded when trying to connect|is not queryable|Query read timeout/i.test(message);
 }
 
 /** Body-parser and file-serving errors carry `status`; they are the client's fault, never a 500. */
