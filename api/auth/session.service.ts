@@ -1,4 +1,4 @@
-import { createHmac, timingSafeEqual } from 'node:crypto';
+import { createHmac, createSecretKey, timingSafeEqual, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import { sql, type Kysely } from 'kysely';
 import type { Config } from '../config';
@@ -16,6 +16,19 @@ export interface IssuedSession {
 interface TokenClaims {
   sub: string;
   sid: string;
+}
+
+const signingKeys = new Map<string, KeyObject>();
+
+/**
+ * The secret as a key object, made once: given a string, jsonwebtoken first tries to read it as a
+ * PEM public key on every verification, and that failed attempt cost more than the rest of a
+ * session check.
+ */
+function signingKey(secret: string): KeyObject {
+  let key = signingKeys.get(secret);
+  if (!key) signingKeys.set(secret, (key = createSecretKey(Buffer.from(secret, 'utf8'))));
+  return key;
 }
 
 /** The CSRF token is bound to the session, so a cookie planted from elsewhere cannot match it. */
@@ -42,7 +55,7 @@ export async function issueSession(
     .values({ user_id: user.id, expires_at: expiresAt, user_agent: meta.userAgent?.slice(0, 500) ?? null, address: meta.address })
     .returning('id')
     .executeTakeFirstOrThrow();
-  const token = jwt.sign({ sid: row.id }, config.sessionSecret, {
+  const token = jwt.sign({ sid: row.id }, signingKey(config.sessionSecret), {
     algorithm: 'HS256',
     subject: user.id,
     issuer: ISSUER,
@@ -54,7 +67,7 @@ export async function issueSession(
 /** The token's claims when its signature, issuer and expiry hold; null otherwise. */
 export function verifyToken(config: Config, token: string): TokenClaims | null {
   try {
-    const claims = jwt.verify(token, config.sessionSecret, { algorithms: ['HS256'], issuer: ISSUER });
+    const claims = jwt.verify(token, signingKey(config.sessionSecret), { algorithms: ['HS256'], issuer: ISSUER });
     if (typeof claims !== 'object' || typeof claims.sub !== 'string' || typeof claims['sid'] !== 'string') return null;
     return { sub: claims.sub, sid: claims['sid'] as string };
   } catch {

@@ -90,16 +90,16 @@ export async function listDesigns(db: Db, scope: DesignScope, query: z.output<ty
     const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     base = base.where('designs.name', 'ilike', pattern);
   }
-  const [rows, count] = await Promise.all([
-    base
-      .orderBy(sortColumns[query.sort], query.order)
-      .orderBy('designs.id')
-      .limit(query.pageSize)
-      .offset(query.page * query.pageSize)
-      .execute(),
-    base.clearSelect().select((eb) => eb.fn.countAll<string>().as('count')).executeTakeFirstOrThrow(),
-  ]);
-  return { items: rows.map(toSummary), total: Number(count.count) };
+  // The total comes with the page (one query, not two); only a page past the end needs a count of its own.
+  const rows = await base
+    .select(sql<string>`count(*) over ()`.as('total'))
+    .orderBy(sortColumns[query.sort], query.order)
+    .orderBy('designs.id')
+    .limit(query.pageSize)
+    .offset(query.page * query.pageSize)
+    .execute();
+  const total = rows.length > 0 ? rows[0]!.total : (await base.clearSelect().select((eb) => eb.fn.countAll<string>().as('total')).executeTakeFirstOrThrow()).total;
+  return { items: rows.map(toSummary), total: Number(total) };
 }
 
 export async function findDesign(db: Db, scope: DesignScope, id: string): Promise<DesignSummary | undefined> {

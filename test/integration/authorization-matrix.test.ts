@@ -352,6 +352,12 @@ describe('what each role sees', () => {
     expect(await designNames('admin')).toEqual(['Admin line sensor', 'Dana line sensor', 'Otto private sensor', 'Otto shared sensor']);
     expect(await designNames('designer')).toEqual(['Dana line sensor']);
     expect(await designNames('reviewer')).toEqual([]);
+    const totalOf = async (actor: Exclude<Actor, 'anonymous'>, page: number) => (await request(app).get(`/api/designs?pageSize=2&page=${page}`).set(w.auth[actor]!)).body;
+    expect(await totalOf('admin', 1)).toMatchObject({ total: 4, items: [{}, {}] });
+    expect(await totalOf('admin', 5)).toMatchObject({ total: 4, items: [] });
+    expect(await totalOf('designer', 0)).toMatchObject({ total: 1, items: [{ name: 'Dana line sensor' }] });
+    expect(await totalOf('designer', 3)).toMatchObject({ total: 1, items: [] });
+    expect(await totalOf('reviewer', 0)).toMatchObject({ total: 0, items: [] });
 
     const reviewIds = async (actor: Exclude<Actor, 'anonymous'>) => ((await request(app).get('/api/reviews').set(w.auth[actor]!)).body.items as { id: string }[]).map((r) => r.id);
     expect(await reviewIds('admin')).toEqual([w.reviews.shared.admin.reviewId]);
