@@ -1,0 +1,238 @@
+/**
+ * Load benchmark of the API (not a timed test): autocannon against the real server and PostgreSQL,
+ * everything on loopback, 32 connections for 20 s per route:
+ *   sign-in, list designs, load a version, save a version (each connection saves on its own design,
+ *   always on the latest base), and, in the same run, a bare Express 5 + pg route doing the designs
+ *   list query (tools/bench/load-peer.ts) as the baseline.
+ * Targets: p99 under 50 ms for reads, under 100 ms for saves; the list route at least 60 % of the
+ * baseline's requests per second. Sign-in is reported but has no latency target: its cost is the
+ * password hash (bcrypt, cost 12 by default), by design.
+ *
+ * Run: node --import tsx tools/bench/load.ts
+ * It starts its own cluster (BENCH_PGPORT, default 54349, folder .data/pg-bench-<port>), migrates and
+ * seeds it, starts the API and the baseline on free loopback ports, and stops and removes all of it
+ * at the end, also on failure or Ctrl+C, within a bounded time (BENCH_CONNECTIONS and
+ * BENCH_DURATION_S change the load).
+ */
+import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { createServer } from 'node:net';
+import { fileURLToPath } from 'node:url';
+import autocannon, { type Request, type Result } from 'autocannon';
+import demoPressure from '../../shared/examples/demo-pressure.json';
+import { removeBenchDatabase, startBenchDatabase } from './cluster.mjs';
+
+const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
+const PGPORT = Number(process.env.BENCH_PGPORT ?? 54349);
+const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 32);
+const DURATION_S = Number(process.env.BENCH_DURATION_S ?? 20);
+const DESIGNER = 'designer@example.com';
+const PASSWORD = process.env.DEMO_PASSWORD || 'bridge-demo-2026';
+/** The whole run may take no longer than this; then everything is stopped. */
+const DEADLINE_MS = (6 * DURATION_S + 240) * 1000;
+
+const children: ChildProcess[] = [];
+let databaseStarted = false;
+
+function say(message: string) {
+  process.stdout.write(`[load] ${message}\n`);
+}
+
+async function freePort(): Promise<number> {
+  const probe = createServer();
+  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
+  const { port } = probe.address() as { port: number };
+  await new Promise((resolve) => probe.close(resolve));
+  return port;
+}
+
+function start(label: string, script: string, env: Record<string, string>): ChildProcess {
+  const child = spawn(process.execPath, ['--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'ignore', 'pipe'] });
+  child.stderr!.on('data', (chunk: Buffer) => process.stderr.write(`[${label}] ${chunk.toString('utf8')}`));
+  children.push(child);
+  return child;
+}
+
+async function waitForHttp(url: string, child: ChildProcess) {
+  const deadline = Date.now() + 30_000;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`${url}: the process ended with ${child.exitCode}`);
+    try {
+      await fetch(url, { signal: AbortSignal.timeout(1000) });
+      return;
+    } catch {
+      await new Promise((resolve) => setTimeout(resolve, 100));
+    }
+  }
+  throw new Error(`${url} did not answer within 30 s`);
+}
+
+/** Waits until the server answers a health check quickly again (work queued by a run is done). */
+async function drained(url: string) {
+  const deadline = Date.now() + 60_000;
+  while (Date.now() < deadline) {
+    const started = performance.now();
+    await fetch(`${url}/api/health`);
+    if (performance.now() - started < 20) return;
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+  throw new Error('the server stayed busy for a minute after a run');
+}
+
+async function stopChild(child: ChildProcess) {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  const ended = new Promise((resolve) => child.once('exit', resolve));
+  child.kill('SIGTERM');
+  const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
+  await ended;
+  clearTimeout(timer);
+}
+
+async function cleanUp() {
+  await Promise.all(children.map(stopChild));
+  if (databaseStarted) {
+    removeBenchDatabase(PGPORT);
+    databaseStarted = false;
+  }
+}
+
+async function json<T>(response: Response): Promise<T> {
+  if (!response.ok) throw new Error(`${response.url}: ${response.status} ${await response.text()}`);
+  return (await response.json()) as T;
+}
+
+function run(title: string, url: string, requests: Request[]): Promise<Result> {
+  say(`${title}: ${CONNECTIONS} connections for ${DURATION_S} s`);
+  return autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, timeout: 10, requests });
+}
+
+interface Row {
+  route: string;
+  result: Result;
+  p99Target: number | null;
+}
+
+function report(rows: Row[], baseline: Result) {
+  const lines = ['', 'route                      req/s    p50 ms   p99 ms   2xx      non-2xx  errors   p99 target'];
+  for (const { route, result, p99Target } of rows) {
+    const verdict = p99Target === null ? 'none' : `< ${p99Target} ms ${result.latency.p99 < p99Target ? 'ok' : 'MISSED'}`;
+    lines.push(
+      [route.padEnd(26), result.requests.average.toFixed(0).padStart(6), result.latency.p50.toFixed(1).padStart(9), result.latency.p99.toFixed(1).padStart(8),
+        String(result['2xx']).padStart(8), String(result.non2xx).padStart(8), String(result.errors + result.timeouts).padStart(8), `   ${verdict}`].join(' '),
+    );
+  }
+  const list = rows.find((row) => row.route === 'list designs')!.result;
+  const ratio = list.requests.average / baseline.requests.average;
+  lines.push(
+    [ 'baseline (Express + pg)'.padEnd(26), baseline.requests.average.toFixed(0).padStart(6), baseline.latency.p50.toFixed(1).padStart(9), baseline.latency.p99.toFixed(1).padStart(8),
+      String(baseline['2xx']).padStart(8), String(baseline.non2xx).padStart(8), String(baseline.errors + baseline.timeouts).padStart(8)].join(' '),
+  );
+  lines.push('', `list designs / baseline: ${(100 * ratio).toFixed(0)} % of the baseline's requests per second (target >= 60 %) ${ratio >= 0.6 ? 'ok' : 'MISSED'}`);
+  process.stdout.write(`${lines.join('\n')}\n`);
+}
+
+async function main() {
+  say(`PostgreSQL on 127.0.0.1:${PGPORT}`);
+  const databaseUrl = startBenchDatabase(PGPORT);
+  databaseStarted = true;
+  const env = { DATABASE_URL: databaseUrl, LOG_LEVEL: 'warn' };
+  execFileSync(process.execPath, ['--import', 'tsx', 'tools/migrate.ts'], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: 'ignore' });
+  execFileSync(process.execPath, ['--import', 'tsx', 'tools/seed.ts'], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: 'ignore' });
+
+  const [apiPort, peerPort, smtpPort] = [await freePort(), await freePort(), await freePort()];
+  const api = start('api', 'api/main.ts', {
+    ...env,
+    NODE_ENV: 'production',
+    SESSION_SECRET: randomBytes(48).toString('base64url'),
+    HOST: '127.0.0.1',
+    PORT: String(apiPort),
+    STATIC_DIR: 'no-static-dir-for-the-load-benchmark',
+    SMTP_URL: `smtp://127.0.0.1:${smtpPort}`,
+    SIGN_IN_LIMIT_PER_ADDRESS: '100000000',
+    SIGN_IN_LIMIT_PER_ACCOUNT: '100000000',
+  });
+  const apiUrl = `http://127.0.0.1:${apiPort}`;
+  await waitForHttp(`${apiUrl}/api/health`, api);
+
+  const session = await json<{ token: string; user: { id: string } }>(
+    await fetch(`${apiUrl}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: DESIGNER, password: PASSWORD }) }),
+  );
+  const auth = { Authorization: `Bearer ${session.token}` };
+  const designs = await json<{ items: { id: string; name: string; latestVersion: number }[] }>(await fetch(`${apiUrl}/api/designs`, { headers: auth }));
+  const demo = designs.items.find((d) => d.name === 'Dispensing robot line sensor, pressure');
+  if (!demo) throw new Error('the seeded demo design is missing');
+  // Saves go round a pool of designs four times the connections: a design comes round again only
+  // after its last save was answered, so every save is on the latest version. (autocannon resets a
+  // connection's context on every request when there is only one, so state cannot live there.)
+  const latest = new Map<string, number>();
+  for (let i = 0; i < 4 * CONNECTIONS; i += 1) {
+    const created = await json<{ id: string }>(
+      await fetch(`${apiUrl}/api/designs`, { method: 'POST', headers: { ...auth, 'Content-Type': 'application/json' }, body: JSON.stringify({ name: `Load benchmark ${i}`, document: demoPressure }) }),
+    );
+    latest.set(created.id, 1);
+  }
+  const savePool = [...latest.keys()];
+
+  const peer = start('baseline', 'tools/bench/load-peer.ts', { ...env, PORT: String(peerPort), OWNER_ID: session.user.id });
+  const peerUrl = `http://127.0.0.1:${peerPort}`;
+  await waitForHttp(`${peerUrl}/designs`, peer);
+
+  const rows: Row[] = [];
+  rows.push({ route: 'list designs', p99Target: 50, result: await run('list designs', apiUrl, [{ method: 'GET', path: '/api/designs', headers: auth }]) });
+  await drained(apiUrl);
+  const baseline = await run('baseline: Express + pg, the list query', peerUrl, [{ method: 'GET', path: '/designs' }]);
+  await drained(apiUrl);
+  rows.push({ route: 'load a version', p99Target: 50, result: await run('load a version', apiUrl, [{ method: 'GET', path: `/api/designs/${demo.id}/versions/${demo.latestVersion}`, headers: auth }]) });
+
+  let nextDesign = 0;
+  let conflicts = 0;
+  const save: Request = {
+    method: 'POST',
+    setupRequest: (request) => {
+      const id = savePool[nextDesign++ % savePool.length]!;
+      return {
+        ...request,
+        path: `/api/designs/${id}/versions`,
+        headers: { ...auth, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ document: demoPressure, message: 'Load benchmark save', baseVersion: latest.get(id) }),
+      };
+    },
+    onResponse: (status, body) => {
+      if (status === 201) {
+        const saved = JSON.parse(body) as { designId: string; number: number };
+        latest.set(saved.designId, saved.number);
+      } else if (status === 409) {
+        conflicts += 1;
+      }
+    },
+  };
+  await drained(apiUrl);
+  rows.push({ route: 'save a version', p99Target: 100, result: await run('save a version', apiUrl, [save]) });
+  if (conflicts > 0) say(`saves: ${conflicts} answered 409 (a design came round before its last save was answered)`);
+
+  // Last, because the password hashing of the sign-ins still queued when a run ends goes on for seconds.
+  await drained(apiUrl);
+  const signInBody = JSON.stringify({ email: DESIGNER, password: PASSWORD });
+  rows.unshift({ route: 'sign-in', p99Target: null, result: await run('sign-in', apiUrl, [{ method: 'POST', path: '/api/auth/sign-in', headers: { 'Content-Type': 'application/json' }, body: signInBody }]) });
+
+  report(rows, baseline);
+}
+
+const deadline = setTimeout(() => {
+  process.stderr.write(`[load] not done after ${DEADLINE_MS / 1000} s: stopping everything\n`);
+  void cleanUp().finally(() => process.exit(1));
+}, DEADLINE_MS);
+deadline.unref();
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+  process.on(signal, () => void cleanUp().finally(() => process.exit(130)));
+}
+
+try {
+  await main();
+} catch (error) {
+  process.stderr.write(`[load] ${error instanceof Error ? error.stack : String(error)}\n`);
+  process.exitCode = 1;
+} finally {
+  await cleanUp();
+  clearTimeout(deadline);
+}
