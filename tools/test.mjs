@@ -44,6 +44,11 @@ async function main() {
   try {
     const env = { ...process.env, TEST_DATABASE_URL: startTestDatabase(), LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' };
 
+    // Built first: the API suites check the served index.html, the end-to-end suite drives it.
+    say('test', 'building the web app');
+    const built = ng(['build'], env) === 0;
+    if (!built) suites.push(['build', { passed: 0, failed: 1 }]);
+
     say('test', 'engine and API suites (Vitest)');
     suites.push(['vitest: shared + api', vitest(['shared', 'api'], 'vitest.json', env)]);
 
@@ -55,10 +60,7 @@ async function main() {
     if (karmaStatus !== 0 && karma.failed === 0) karma.failed = 1;
     suites.push(['karma', karma]);
 
-    say('test', 'building the web app for the end-to-end suite');
-    if (ng(['build'], env) !== 0) {
-      suites.push(['build', { passed: 0, failed: 1 }]);
-    } else {
+    if (built) {
       say('test', 'end-to-end suite (Playwright in Chromium)');
       suites.push(['vitest: e2e', vitest(['e2e'], 'e2e.json', env)]);
     }
