@@ -1,14 +1,13 @@
 import { Router } from 'express';
 import type { Kysely } from 'kysely';
-import { z } from 'zod';
 import { requireRole } from '../auth/authenticate';
 import type { Database } from '../db/database';
 import { findDesign } from '../designs/design.repository';
 import { notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { listEvents } from './audit.repository';
+import { designPathSchema as designPath } from '../designs/design-path';
 
-const designPath = z.object({ id: z.string().uuid('Design id must be a UUID') });
 
 /** The design's audit trail, oldest first: its owner and admins. */
 export function auditRouter(db: Kysely<Database>): Router {

@@ -17,8 +17,8 @@ import { badRequest, HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { missingColumns, readBenchFile, readPoints } from './bench-csv';
 import { deleteDataset, findDataset, findDatasetFile, findDatasetSummary, insertDataset, listDatasets } from './dataset.repository';
+import { designPathSchema as designIdSchema } from '../designs/design-path';
 
-const designIdSchema = z.object({ id: z.string().uuid('Design id must be a UUID') });
 const datasetPathSchema = designIdSchema.extend({ datasetId: z.string().uuid('Dataset id must be a UUID') });
 
 /** Rows the preview returns. */

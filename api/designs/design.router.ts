@@ -1,6 +1,5 @@
 import { Router, type Request } from 'express';
 import type { Kysely } from 'kysely';
-import { z } from 'zod';
 import { createDesignSchema, listDesignsQuerySchema, saveVersionSchema, updateDesignSchema } from '@shared/contracts/designs-api';
 import { requireRole } from '../auth/authenticate';
 import type { Database } from '../db/database';
@@ -8,11 +7,8 @@ import { badRequest, HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { appendVersion, findDesign, findVersion, insertDesign, listDesigns, listVersions, updateDesign, type DesignScope, type NewVersion } from './design.repository';
 import { newVersion } from './new-version';
+import { designPathSchema as designIdSchema, versionPathSchema } from './design-path';
 
-const designIdSchema = z.object({ id: z.string().uuid('Design id must be a UUID') });
-const versionPathSchema = designIdSchema.extend({
-  number: z.coerce.number({ error: 'Version number must be a number' }).int('Version number must be a whole number').min(1, 'Version number must be at least 1'),
-});
 
 function scopeOf(req: Request): DesignScope {
   const user = req.auth!.user;

@@ -1,6 +1,5 @@
 import { Router } from 'express';
 import type { Kysely } from 'kysely';
-import { z } from 'zod';
 import { loadDesign } from '@shared/contracts/design-loader';
 import { evaluateBudget } from '@shared/engine/budget/evaluate';
 import { requireRole } from '../auth/authenticate';
@@ -11,11 +10,8 @@ import { parseOrThrow } from '../http/validate';
 import { listReviewsOfDesign } from '../reviews/review.repository';
 import { renderDesignReport } from './design-report';
 import { reportSpectrum } from './report-spectrum';
+import { versionPathSchema as versionPath } from '../designs/design-path';
 
-const versionPath = z.object({
-  id: z.string().uuid('Design id must be a UUID'),
-  number: z.coerce.number({ error: 'Version number must be a number' }).int('Version number must be a whole number').min(1, 'Version number must be at least 1'),
-});
 
 function fileName(name: string, number: number): string {
   const safe = name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 80) || 'design';

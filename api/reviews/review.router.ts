@@ -11,6 +11,7 @@ import { setSessionCookies } from '../auth/session-cookies';
 import { issueSession } from '../auth/session.service';
 import type { Config } from '../config';
 import type { Database } from '../db/database';
+import { designPathSchema as designPath, versionPathSchema as versionPath } from '../designs/design-path';
 import { findDesign, findVersion } from '../designs/design.repository';
 import { badRequest, conflict, HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
@@ -33,13 +34,8 @@ import {
   type ReviewRecord,
 } from './review.repository';
 
-const versionPath = z.object({
-  id: z.string().uuid('Design id must be a UUID'),
-  number: z.coerce.number({ error: 'Version number must be a number' }).int('Version number must be a whole number').min(1, 'Version number must be at least 1'),
-});
 const reviewPath = z.object({ id: z.string().uuid('Review id must be a UUID') });
 const commentPath = reviewPath.extend({ commentId: z.string().uuid('Comment id must be a UUID') });
-const designPath = z.object({ id: z.string().uuid('Design id must be a UUID') });
 const tokenPath = z.object({ token: z.string().min(20, 'Invitation link is not complete').max(200, 'Invitation link is not valid') });
 
 const usedInvitation = () => new HttpProblem(410, 'Invitation used', 'This invitation link has already been used; sign in instead.');
