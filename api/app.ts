@@ -8,6 +8,7 @@ import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { authOperations } from './auth/auth.openapi';
 import { authRouter } from './auth/auth.router';
+import type { SessionCache } from './auth/session-cache';
 import { authenticate } from './auth/authenticate';
 import type { Config } from './config';
 import type { Database } from './db/database';
@@ -36,14 +37,17 @@ export interface AppDeps {
   version: string;
   /** Delivers queued mail; without one, mail waits in the outbox for a process that has it. */
   outbox?: Outbox | null;
+  /** Remembers live sessions between requests; without one, every request asks the database. */
+  sessions?: SessionCache | null;
 }
 
 export const operations: Operation[] = [...healthOperations, ...authOperations, ...userOperations, ...designOperations, ...reviewOperations, ...datasetOperations];
 
 /** Builds the whole HTTP application; `api/main.ts` only listens. */
-export function createApp({ config, db, logger, version, outbox = null }: AppDeps): Express {
+export function createApp({ config, db, logger, version, outbox = null, sessions = null }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
+  app.disable('etag');
   if (config.trustProxy) app.set('trust proxy', config.trustProxy);
 
   app.use(
@@ -73,13 +77,19 @@ export function createApp({ config, db, logger, version, outbox = null }: AppDep
 
   let document: unknown;
   const api = express.Router();
+  // Answers of the API are the signed-in user's data: no browser or proxy cache may keep them (and
+  // so an ETag, a hash of every body, would buy nothing).
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: config.bodyLimit }));
   api.use(cookieParser());
   api.use(healthRouter(db, version));
   api.use(docsRouter(() => (document ??= buildOpenApiDocument(operations, version))));
-  api.use(authenticate(db, config));
-  api.use(authRouter(db, config));
-  api.use(userRouter(db, config));
+  api.use(authenticate(db, config, sessions));
+  api.use(authRouter(db, config, sessions));
+  api.use(userRouter(db, config, sessions));
   api.use(designRouter(db, version));
   api.use(datasetRouter(db));
   api.use(reviewRouter(db, config, outbox));

@@ -1,9 +1,12 @@
 // Starts the API and the built app on HOST:PORT. Everything else lives in createApp().
 import { createApp } from './app';
+import { closePasswordWorkers } from './auth/password-hashing';
+import { SessionCache } from './auth/session-cache';
 import { ConfigError, loadConfig } from './config';
 import { createDatabase } from './db/database';
 import { createLogger } from './logger';
 import { createOutbox, createSmtpTransport } from './mail/outbox';
+import { closeReportWorkers } from './reports/report-workers';
 import { version } from './version';
 
 let config;
@@ -18,10 +21,12 @@ try {
 }
 
 const logger = createLogger(config.logLevel);
-const db = createDatabase(config.databaseUrl);
+const db = createDatabase(config.databaseUrl, { prepared: true });
 const outbox = createOutbox({ db, transport: createSmtpTransport(config.mail.smtpUrl), from: config.mail.from, logger });
 outbox.start();
-const app = createApp({ config, db, logger, version, outbox });
+const sessions = new SessionCache(config.databaseUrl, logger);
+sessions.start();
+const app = createApp({ config, db, logger, version, outbox, sessions });
 const server = app.listen(config.port, config.host, () => {
   logger.info({ url: `http://${config.host}:${config.port}` }, 'Quietbridge is serving');
 });
@@ -57,7 +62,7 @@ function shutDown(signal: string) {
       clearInterval(sweep);
       void outbox
         .stop()
-        .then(() => db.destroy())
+        .then(() => Promise.all([sessions.stop(), db.destroy(), closePasswordWorkers(), closeReportWorkers()]))
         .finally(() => process.exit(0));
     });
   });

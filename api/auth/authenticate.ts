@@ -6,7 +6,8 @@ import type { Config } from '../config';
 import type { Database } from '../db/database';
 import { forbidden, HttpProblem, unauthorized } from '../http/problem';
 import { toUser } from '../users/user.repository';
-import { csrfTokenMatches, findSessionUser, verifyToken } from './session.service';
+import type { SessionCache } from './session-cache';
+import { csrfTokenMatches, findLiveSession, verifyToken } from './session.service';
 import './auth-context';
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -22,17 +23,25 @@ function presentedToken(req: Request): { token: string; via: 'cookie' | 'bearer'
 }
 
 /**
- * Resolves the session from a Bearer token or the session cookie into `req.auth`.
+ * Resolves the session from a Bearer token or the session cookie into `req.auth` (from the session
+ * cache when it has the session, from the database otherwise).
  * A cookie session's state-changing requests must echo the session's CSRF token in a header.
  */
-export function authenticate(db: Kysely<Database>, config: Config): RequestHandler {
+export function authenticate(db: Kysely<Database>, config: Config, sessions: SessionCache | null): RequestHandler {
   return async (req, _res, next) => {
     const presented = presentedToken(req);
     if (!presented) return next();
     const claims = verifyToken(config, presented.token);
     if (!claims) return next();
-    const row = await findSessionUser(db, claims);
-    if (!row) return next();
+    let row = sessions?.get(claims.sid);
+    if (row && row.id !== claims.sub) row = undefined;
+    if (!row) {
+      const ticket = sessions?.ticket() ?? 0;
+      const live = await findLiveSession(db, claims);
+      if (!live) return next();
+      row = live.user;
+      sessions?.store(ticket, claims.sid, live.user, live.expiresAt);
+    }
     if (presented.via === 'cookie' && !SAFE_METHODS.has(req.method) && !csrfTokenMatches(config.sessionSecret, claims.sid, req.get(CSRF_HEADER))) {
       throw new HttpProblem(403, 'CSRF check failed', `Requests made with the session cookie must send the ${CSRF_HEADER} header; reload the page and try again.`);
     }

@@ -75,19 +75,23 @@ export function verifyToken(config: Config, token: string): TokenClaims | null {
   }
 }
 
-/** The user of a live session: not revoked, not expired, account enabled. */
-export async function findSessionUser(db: Kysely<Database>, claims: TokenClaims): Promise<UserRow | undefined> {
+/** The user of a live session (not revoked, not expired, account enabled), and when the session expires. */
+export async function findLiveSession(db: Kysely<Database>, claims: TokenClaims): Promise<{ user: UserRow; expiresAt: Date } | undefined> {
   if (!/^[0-9a-f-]{36}$/i.test(claims.sid)) return undefined;
-  return db
+  const row = await db
     .selectFrom('sessions')
     .innerJoin('users', 'users.id', 'sessions.user_id')
     .selectAll('users')
+    .select('sessions.expires_at as session_expires_at')
     .where('sessions.id', '=', claims.sid)
     .where('sessions.user_id', '=', claims.sub)
     .where('sessions.revoked_at', 'is', null)
     .where('sessions.expires_at', '>', sql<Date>`now()`)
     .where('users.disabled', '=', false)
     .executeTakeFirst();
+  if (!row) return undefined;
+  const { session_expires_at: expiresAt, ...user } = row;
+  return { user, expiresAt };
 }
 
 export async function revokeSession(db: Kysely<Database>, sessionId: string): Promise<void> {

@@ -1,4 +1,4 @@
-import { Kysely, PostgresDialect, type ColumnType, type Generated, type Insertable, type Selectable, type Updateable } from 'kysely';
+import { Kysely, PostgresDialect, type ColumnType, type PostgresPool, type PostgresPoolClient, type Generated, type Insertable, type Selectable, type Updateable } from 'kysely';
 import pg from 'pg';
 import type { KeyFigures } from '@shared/contracts/designs-api';
 import type { Role } from '@shared/contracts/user';
@@ -174,8 +174,64 @@ export type SessionRow = Selectable<SessionsTable>;
 export type DesignRow = Selectable<DesignsTable>;
 export type DesignVersionRow = Selectable<DesignVersionsTable>;
 
+/** Statements worth keeping prepared: one data statement each (never the DDL of a migration). */
+const PREPARABLE = /^\s*(select|insert|update|delete|with)\b/i;
+/** More distinct statement texts than the code has query shapes means something builds SQL per value. */
+const MAX_PREPARED_NAMES = 2000;
+
+/**
+ * The pool as Kysely sees it, with two additions.
+ * - Prepared statements (when asked for): each data statement goes as a named prepared statement, so
+ *   the server parses and plans a statement text once per connection instead of on every request
+ *   (planning the designs list costs about as much as running it). Names come from the text, so one
+ *   text has one name on every connection; the values still travel as parameters.
+ * - A connection whose query failed without an answer from the server (no reply within
+ *   query_timeout, the link reset) is closed on release instead of going back to the pool, where a
+ *   late reply could still arrive on it.
+ */
+function guardedPool(pool: pg.Pool, prepared: boolean): PostgresPool {
+  const names = new Map<string, string>();
+  const nameOf = (text: string): string | undefined => {
+    let name = names.get(text);
+    if (name === undefined && names.size < MAX_PREPARED_NAMES) {
+      name = `qb_${names.size.toString(36)}`;
+      names.set(text, name);
+    }
+    return name;
+  };
+  return {
+    async connect() {
+      const client = await pool.connect();
+      let broken = false;
+      const watch = <T>(result: Promise<T>): Promise<T> =>
+        result.catch((error: unknown) => {
+          // Errors the server reports carry a severity; any other leaves the connection in doubt.
+          if (!(error && typeof error === 'object' && 'severity' in error)) broken = true;
+          throw error;
+        });
+      return {
+        query: ((textOrCursor: unknown, values?: unknown[]) => {
+          if (typeof textOrCursor !== 'string') return client.query(textOrCursor as never);
+          const name = prepared && PREPARABLE.test(textOrCursor) ? nameOf(textOrCursor) : undefined;
+          return watch(name ? client.query({ name, text: textOrCursor, values: values as unknown[] }) : client.query(textOrCursor, values as unknown[]));
+        }) as unknown as PostgresPoolClient['query'],
+        release: (destroy?: boolean) => client.release(destroy || broken),
+      };
+    },
+    end: () => pool.end(),
+  };
+}
+
 // Timestamps arrive as Date; numeric and bigint columns stay strings unless a column asks otherwise.
-export function createDatabase(connectionString: string, options: { max?: number } = {}): Kysely<Database> {
+export interface DatabaseOptions {
+  max?: number;
+  /** Named prepared statements (the API uses them; scripts and migrations need not). */
+  prepared?: boolean;
+  /** How long the client waits for any answer to a query [ms] (6 s; tests shorten it). */
+  queryTimeoutMs?: number;
+}
+
+export function createDatabase(connectionString: string, options: DatabaseOptions = {}): Kysely<Database> {
   const pool = new pg.Pool({
     connectionString,
     max: options.max ?? 10,
@@ -185,12 +241,12 @@ export function createDatabase(connectionString: string, options: { max?: number
     // wait included), and the client gives up on one that gets no answer at all (a server that
     // froze or a link that died with the connection open) a second later.
     statement_timeout: 5000,
-    query_timeout: 6000,
+    query_timeout: options.queryTimeoutMs ?? 6000,
   });
   // A client losing its server (database restart) must not crash the process: the pool covers idle
   // clients, the listener below those checked out between two queries (inside a transaction, say).
   // The query in progress, if any, still fails, and the pool drops the client when it is released.
   pool.on('error', () => undefined);
   pool.on('connect', (client) => client.on('error', () => undefined));
-  return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+  return new Kysely<Database>({ dialect: new PostgresDialect({ pool: guardedPool(pool, options.prepared ?? false) }) });
 }

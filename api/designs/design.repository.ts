@@ -145,22 +145,38 @@ async function insertVersionRow(trx: Transaction<Database>, designId: string, nu
     .execute();
 }
 
-export type SaveOutcome = { saved: true; number: number } | { saved: false; latestVersion: number };
+export type SaveOutcome = { saved: true; number: number; createdAt: string } | { saved: false; latestVersion: number };
 
 /**
- * Appends a version when `baseVersion` is still the latest. The design row is locked for the
- * transaction, so concurrent saves on the same base get exactly one winner and gapless numbers.
+ * Appends a version when `baseVersion` is still the latest, in one statement: the update of the
+ * design row bumps its latest number only where it still equals the base, and the version and its
+ * audit event are inserted from that update's result. Concurrent saves on the same base queue on
+ * the row lock, and each one after the first finds the number moved on and inserts nothing
+ * (PostgreSQL re-checks an UPDATE's condition on the newest row version after a lock wait, in READ
+ * COMMITTED; PostgreSQL documentation, "Transaction Isolation"): exactly one winner, gapless numbers.
  */
 export async function appendVersion(db: Kysely<Database>, designId: string, baseVersion: number, version: NewVersion): Promise<SaveOutcome> {
-  return db.transaction().execute(async (trx) => {
-    const design = await trx.selectFrom('designs').select('latest_version').where('id', '=', designId).forUpdate().executeTakeFirstOrThrow();
-    if (design.latest_version !== baseVersion) return { saved: false, latestVersion: design.latest_version };
-    const number = design.latest_version + 1;
-    await insertVersionRow(trx, designId, number, version);
-    await trx.updateTable('designs').set({ latest_version: number, updated_at: sql`now()` }).where('id', '=', designId).execute();
-    await recordEvent(trx, { designId, versionNumber: number, actorId: version.authorId, action: 'saved', detail: { message: version.message, baseVersion } });
-    return { saved: true, number };
-  });
+  const { rows } = await sql<{ number: number; created_at: Date }>`
+    with bumped as (
+      update designs set latest_version = latest_version + 1, updated_at = now()
+       where id = ${designId} and latest_version = ${baseVersion}
+      returning id, latest_version
+    ), inserted as (
+      insert into design_versions (design_id, number, document, message, author_id, format_version, engine_version, figures)
+      select id, latest_version, ${JSON.stringify(version.document)}::jsonb, ${version.message}::text, ${version.authorId}::uuid,
+             ${version.formatVersion}::integer, ${version.engineVersion}::text, ${JSON.stringify(version.figures)}::jsonb
+        from bumped
+      returning design_id, number, created_at
+    ), audited as (
+      insert into audit_events (design_id, version_number, actor_id, action, detail)
+      select design_id, number, ${version.authorId}::uuid, 'saved', ${JSON.stringify({ message: version.message, baseVersion })}::jsonb
+        from inserted
+    )
+    select number, created_at from inserted`.execute(db);
+  const saved = rows[0];
+  if (saved) return { saved: true, number: saved.number, createdAt: iso(saved.created_at) };
+  const design = await db.selectFrom('designs').select('latest_version').where('id', '=', designId).executeTakeFirstOrThrow();
+  return { saved: false, latestVersion: design.latest_version };
 }
 
 export async function updateDesign(db: Kysely<Database>, id: string, actorId: string, changes: { name?: string; archived?: boolean }): Promise<void> {

@@ -1,6 +1,6 @@
 import { Router, type Request } from 'express';
 import type { Kysely } from 'kysely';
-import { createDesignSchema, listDesignsQuerySchema, saveVersionSchema, updateDesignSchema } from '@shared/contracts/designs-api';
+import { createDesignSchema, listDesignsQuerySchema, saveVersionSchema, updateDesignSchema, type Version } from '@shared/contracts/designs-api';
 import { requireRole } from '../auth/authenticate';
 import type { Database } from '../db/database';
 import { badRequest, HttpProblem, notFound } from '../http/problem';
@@ -84,7 +84,19 @@ export function designRouter(db: Kysely<Database>, engineVersion: string): Route
       });
       return;
     }
-    const saved = await findVersion(db, id, outcome.number);
+    // The answer is what was stored, built from the statement's result rather than read back.
+    const { user } = req.auth!;
+    const saved: Version = {
+      designId: id,
+      number: outcome.number,
+      message: version.message,
+      author: { id: user.id, displayName: user.displayName, email: user.email },
+      createdAt: outcome.createdAt,
+      formatVersion: version.formatVersion,
+      engineVersion: version.engineVersion,
+      figures: version.figures,
+      document: version.document,
+    };
     res.status(201).location(`/api/designs/${id}/versions/${outcome.number}`).json(saved);
   });
 

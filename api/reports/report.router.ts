@@ -9,9 +9,8 @@ import { HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { listReviewsOfDesign } from '../reviews/review.repository';
 import { renderDesignReport } from './design-report';
-import { reportSpectrum } from './report-spectrum';
+import { simulateReportSpectrum } from './report-workers';
 import { versionPathSchema as versionPath } from '../designs/design-path';
-
 
 function fileName(name: string, number: number): string {
   const safe = name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 80) || 'design';
@@ -33,12 +32,17 @@ export function reportRouter(db: Kysely<Database>, engineVersion: string): Route
     const loaded = loadDesign(version.document);
     if (!loaded.ok) throw new HttpProblem(422, 'Stored document not readable', 'This version’s document no longer passes validation; open it in the workbench to see why.', loaded.errors);
     const designName = owned?.name ?? reviews[0]!.design.name;
+    // A report without its spectrum beats no report: the PDF says the simulation did not run.
+    const spectrum = await simulateReportSpectrum(loaded.design).catch((error: unknown) => {
+      req.log?.warn({ err: error }, 'the report spectrum simulation failed');
+      return null;
+    });
     const pdf = await renderDesignReport({
       designName,
       version,
       budget: evaluateBudget(loaded.design),
       reviews: reviews.map(({ ownerId: _owner, ...review }) => review),
-      spectrum: reportSpectrum(loaded.design),
+      spectrum,
       generatedAt: new Date(),
       generatedBy: user.displayName,
       engineVersion,

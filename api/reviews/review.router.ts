@@ -1,4 +1,3 @@
-import bcrypt from 'bcryptjs';
 import { Router, type Request } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import type { Kysely } from 'kysely';
@@ -17,6 +16,7 @@ import { badRequest, conflict, HttpProblem, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { enqueueMail, type Outbox } from '../mail/outbox';
 import { decisionMail, invitationMail, reviewRequestedMail } from '../mail/templates';
+import { hashPassword } from '../auth/password-hashing';
 import { findUserByEmail, insertUser, toUser } from '../users/user.repository';
 import { consumeInvitation, createInvitation, lookUpInvitation } from './invitation.service';
 import {
@@ -216,7 +216,7 @@ export function reviewRouter(db: Kysely<Database>, config: Config, outbox: Outbo
     const problems = passwordProblems(body.password, invitation.email);
     if (problems.length > 0) throw badRequest(`The password is not accepted: ${problems[0]!.message}.`, problems);
     if (await findUserByEmail(db, invitation.email)) throw conflict('An account with this e-mail already exists; sign in instead.', [{ path: 'email', message: 'Already has an account' }]);
-    const passwordHash = await bcrypt.hash(body.password, config.bcryptCost);
+    const passwordHash = await hashPassword(body.password, config.bcryptCost);
     const user = await db.transaction().execute(async (trx) => {
       if (!(await consumeInvitation(trx, invitation.id))) return null;
       const created = await insertUser(trx, { email: invitation.email, display_name: body.displayName, role: 'reviewer', password_hash: passwordHash });

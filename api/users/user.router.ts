@@ -1,16 +1,17 @@
-import bcrypt from 'bcryptjs';
 import { Router } from 'express';
 import type { Kysely } from 'kysely';
 import { z } from 'zod';
 import { createUserSchema, listUsersQuerySchema, updateUserSchema } from '@shared/contracts/user';
 import { requireRole } from '../auth/authenticate';
 import { passwordProblems } from '../auth/password-policy';
+import type { SessionCache } from '../auth/session-cache';
 import { revokeSessionsOf } from '../auth/session.service';
 import type { Config } from '../config';
 import type { Database } from '../db/database';
 import { badRequest, conflict, notFound } from '../http/problem';
 import { parseOrThrow } from '../http/validate';
 import { countEnabledAdmins, findUserByEmail, findUserById, insertUser, listUsers, toUser, updateUser } from './user.repository';
+import { hashPassword } from '../auth/password-hashing';
 
 const userIdSchema = z.object({ id: z.string().uuid('Account id must be a UUID') });
 
@@ -18,7 +19,7 @@ function isUniqueViolation(error: unknown): boolean {
   return typeof error === 'object' && error !== null && (error as { code?: unknown }).code === '23505';
 }
 
-export function userRouter(db: Kysely<Database>, config: Config): Router {
+export function userRouter(db: Kysely<Database>, config: Config, sessions: SessionCache | null = null): Router {
   const router = Router();
   router.use('/users', requireRole('admin'));
 
@@ -39,7 +40,7 @@ export function userRouter(db: Kysely<Database>, config: Config): Router {
         email: body.email,
         display_name: body.displayName,
         role: body.role,
-        password_hash: await bcrypt.hash(body.password, config.bcryptCost),
+        password_hash: await hashPassword(body.password, config.bcryptCost),
       });
       res.status(201).location(`/api/users/${row.id}`).json({ user: toUser(row) });
     } catch (error) {
@@ -71,6 +72,8 @@ export function userRouter(db: Kysely<Database>, config: Config): Router {
     });
     if (!row) throw notFound('No account with this id.');
     if (body.disabled === true || (body.role !== undefined && body.role !== existing.role)) await revokeSessionsOf(db, id);
+    // Any change to the account (its name shows in answers too) before the answer goes out.
+    sessions?.forgetUser(id);
     res.json({ user: toUser(row) });
   });
 

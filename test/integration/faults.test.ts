@@ -223,7 +223,10 @@ describe('PostgreSQL stopped and restarted under load', () => {
     await new Promise((resolve) => setTimeout(resolve, 200));
     const signalled = performance.now();
     api.child.kill('SIGTERM');
-    const results = await Promise.all(inFlight);
+    const settled = await Promise.allSettled(inFlight);
+    const refused = settled.flatMap((outcome) => (outcome.status === 'rejected' ? [String((outcome.reason as Error).cause ?? outcome.reason)] : []));
+    expect(refused, `requests in flight that got no answer; the server wrote:\n${api.output()}`).toEqual([]);
+    const results = settled.map((outcome) => (outcome as PromiseFulfilledResult<Awaited<ReturnType<typeof send>>>).value);
     expect(results.slice(0, 4).map((r) => r.status)).toEqual([200, 200, 200, 200]);
     expect(results.slice(4, 8).map((r) => r.status).every((s) => s === 201 || s === 409)).toBe(true);
     expect(results[8]!.status).toBe(201);

@@ -101,6 +101,22 @@ describe('transport and cookies', () => {
     expect((await request(app).get('/api/health')).headers['strict-transport-security']).toBeUndefined();
   });
 
+  it('tells browsers and proxies to store no API answer, on success and on error', async () => {
+    const owner = await createAccount(testApp, 'designer');
+    const auth = await sessionOf(testApp, owner);
+    const answers = {
+      'GET /api/designs': await request(app).get('/api/designs').set(auth),
+      'GET /api/auth/me': await request(app).get('/api/auth/me').set(auth),
+      'GET /api/designs signed out': await request(app).get('/api/designs'),
+      'GET /api/designs/{id} unknown': await request(app).get(`/api/designs/${uuid}`).set(auth),
+      'POST /api/auth/sign-in wrong': await request(app).post('/api/auth/sign-in').send({ email: 'nobody@example.com', password: 'wrong-password-1' }),
+    };
+    for (const [what, response] of Object.entries(answers)) {
+      expect(response.headers['cache-control'], what).toBe('no-store');
+      expect(response.headers['etag']).toBeUndefined();
+    }
+  });
+
   it('sets the session cookie httpOnly, SameSite=Strict and Secure over TLS, at sign-in and at invitation sign-up', async () => {
     await resetTables(testApp);
     const secureApp = createTestApp({ cookieSecure: true });

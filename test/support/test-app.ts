@@ -8,6 +8,7 @@ import { loadConfig, type Config } from '../../api/config';
 import { createDatabase } from '../../api/db/database';
 import type { Outbox } from '../../api/mail/outbox';
 import { insertUser } from '../../api/users/user.repository';
+import { SessionCache } from '../../api/auth/session-cache';
 
 export const TEST_PASSWORD = 'test-password-4711';
 
@@ -20,14 +21,19 @@ export function createTestApp(overrides: Partial<Config> = {}, extra: { outbox?:
     staticDir: 'no-static-dir-in-api-tests',
     ...overrides,
   };
-  const db = createDatabase(url, { max: 5 });
-  const app = createApp({ config, db, logger: pino({ level: 'silent' }), version: 'test', outbox: extra.outbox ?? null });
-  return { app, db, config };
+  const db = createDatabase(url, { max: 5, prepared: true });
+  // As in the server: live sessions cached, forgotten on every change the database announces.
+  const sessions = new SessionCache(url);
+  sessions.start();
+  const app = createApp({ config, db, logger: pino({ level: 'silent' }), version: 'test', outbox: extra.outbox ?? null, sessions });
+  return { app, db, config, sessions };
 }
 
 export type TestApp = ReturnType<typeof createTestApp>;
 
-export async function resetTables({ db }: TestApp): Promise<void> {
+export async function resetTables({ db, sessions }: TestApp): Promise<void> {
+  // Tests after this one run with the session cache listening, as the server does.
+  await sessions.ready();
   await sql`truncate table audit_events, mailbox_messages, outbox, review_comments, invitations, reviews, design_versions, designs, sessions, users restart identity cascade`.execute(db);
 }
 
