@@ -2,13 +2,14 @@
  * The load benchmark's baseline: a bare Express 5 app with one pg pool and one route doing the
  * designs list query as the API runs it for a designer (their designs with owner, latest version and
  * its author, newest first, one page), nothing else: no session, no validation, no count.
- * Started by tools/bench/load.ts with PORT, DATABASE_URL and OWNER_ID.
+ * Started by tools/bench/load.ts with PORT, DATABASE_URL, OWNER_ID and PAGE_SIZE.
  */
 import express from 'express';
 import pg from 'pg';
 
 const port = Number(process.env.PORT);
 const ownerId = process.env.OWNER_ID ?? '';
+const pageSize = Number(process.env.PAGE_SIZE ?? 20);
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 10 });
 
 const LIST_QUERY = `
@@ -22,12 +23,12 @@ const LIST_QUERY = `
     join users author on author.id = latest.author_id
    where d.owner_id = $1 and d.archived = false
    order by d.updated_at desc, d.id
-   limit 50 offset 0`;
+   limit $2 offset 0`;
 
 const app = express();
 app.disable('x-powered-by');
 app.get('/designs', async (_req, res) => {
-  const { rows } = await pool.query(LIST_QUERY, [ownerId]);
+  const { rows } = await pool.query(LIST_QUERY, [ownerId, pageSize]);
   res.json({ items: rows });
 });
 const server = app.listen(port, '127.0.0.1', () => process.stdout.write('baseline serving\n'));
