@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { HttpProblem } from '../http/problem';
 import { createWorkerPool } from './worker-pool';
 
 const fixture = (name: string) => new URL(`../../test/fixtures/workers/${name}`, import.meta.url);
@@ -21,6 +22,22 @@ describe('worker pool', () => {
       await expect(pool.run(1)).rejects.toThrow(/cannot load/);
       expect(Date.now() - started).toBeLessThan(30_000);
       await expect(pool.run(2)).rejects.toThrow(/cannot load/);
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it('refuses a task beyond the queue limit with a 503 problem and Retry-After', async () => {
+    const pool = createWorkerPool({ file: fixture('stuck.mjs'), maxThreads: 1, timeoutMs: 2000, maxQueue: 1 });
+    try {
+      const running = pool.run(1).catch((error: unknown) => error);
+      const waiting = pool.run(2).catch((error: unknown) => error);
+      await new Promise((resolve) => setTimeout(resolve, 200));
+      const refused = await pool.run(3).catch((error: unknown) => error);
+      expect(refused).toBeInstanceOf(HttpProblem);
+      expect(refused).toMatchObject({ status: 503, headers: { 'Retry-After': '5' } });
+      expect(await running).toBeInstanceOf(Error);
+      expect(await waiting).toBeInstanceOf(Error);
     } finally {
       await pool.close();
     }

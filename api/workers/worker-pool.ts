@@ -1,4 +1,5 @@
 import Tinypool from 'tinypool';
+import { HttpProblem } from '../http/problem';
 
 export interface WorkerPoolOptions {
   /** The worker module (plain JavaScript: worker threads do not inherit the server's loader). */
@@ -6,6 +7,8 @@ export interface WorkerPoolOptions {
   maxThreads: number;
   /** A task not done after this long is abandoned and its promise rejected. */
   timeoutMs: number;
+  /** Tasks that may wait for a thread; one more is refused with 503 and Retry-After (unbounded when not given). */
+  maxQueue?: number;
 }
 
 export interface WorkerPool {
@@ -25,7 +28,14 @@ export function createWorkerPool(options: WorkerPoolOptions): WorkerPool {
 
   function current(): Tinypool {
     if (pool) return pool;
-    const created = new Tinypool({ filename: options.file.href, minThreads: 0, maxThreads: options.maxThreads, idleTimeout: 60_000, execArgv: [] });
+    const created = new Tinypool({
+      filename: options.file.href,
+      minThreads: 0,
+      maxThreads: options.maxThreads,
+      idleTimeout: 60_000,
+      execArgv: [],
+      maxQueue: options.maxQueue ?? Number.POSITIVE_INFINITY,
+    });
     created.on('error', (error: unknown) => {
       for (const controller of pending) controller.abort(error);
       pending.clear();
@@ -44,6 +54,9 @@ export function createWorkerPool(options: WorkerPoolOptions): WorkerPool {
       try {
         return (await current().run(task, { name: name ?? 'default', signal: controller.signal })) as T;
       } catch (error) {
+        if (error instanceof Error && /queue is at limit/i.test(error.message)) {
+          throw new HttpProblem(503, 'Server busy', 'The server has too much of this work queued right now; try again in a few seconds.', [], { 'Retry-After': '5' });
+        }
         throw controller.signal.aborted ? controller.signal.reason : error;
       } finally {
         clearTimeout(timer);

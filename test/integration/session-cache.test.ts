@@ -2,7 +2,7 @@ import { sql } from 'kysely';
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { SessionCache } from '../../api/auth/session-cache';
-import { createAccount, createTestApp, resetTables, signIn } from '../support/test-app';
+import { createAccount, createTestApp, resetTables, signIn, TEST_PASSWORD } from '../support/test-app';
 
 // The session cache (api/auth/session-cache.ts) against the real database: what it remembers, and
 // that every way a session or an account can change makes it forget, at once for changes made
@@ -58,10 +58,17 @@ describe('session cache', () => {
     expect((await request(app).patch(`/api/users/${dana.id}`).set(bearer(adminToken)).send({ role: 'reviewer' })).status).toBe(200);
     expect((await me(renamed)).status).toBe(401);
 
-    const disabled = (await signIn(testApp, otto.email)).token;
-    expect((await me(disabled)).status).toBe(200);
+    const keeper = (await signIn(testApp, otto.email)).token;
+    const other = (await signIn(testApp, otto.email)).token;
+    expect((await me(keeper)).status).toBe(200);
+    expect((await me(other)).status).toBe(200);
+    const changed = await request(app).post('/api/auth/password').set(bearer(keeper)).send({ currentPassword: TEST_PASSWORD, newPassword: 'a-new-passphrase-2026' });
+    expect(changed.status).toBe(204);
+    expect((await me(other)).status).toBe(401);
+    expect((await me(keeper)).status).toBe(200);
+
     expect((await request(app).patch(`/api/users/${otto.id}`).set(bearer(adminToken)).send({ disabled: true })).status).toBe(200);
-    expect((await me(disabled)).status).toBe(401);
+    expect((await me(keeper)).status).toBe(401);
   });
 
   it('forgets, within a second, a change made straight in the database by another process', async () => {
