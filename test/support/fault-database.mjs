@@ -1,9 +1,8 @@
 // A second throwaway PostgreSQL cluster that a test may stop and start while the API runs on it.
 // Its port follows the suites' own (TEST_PGPORT + 1 unless TEST_FAULT_PGPORT is set), so suites
 // run side by side on different ports never share it.
-import { readdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
-import { clusterPaths, databaseUrl, removeCluster, startCluster, stopCluster } from '../../tools/db.mjs';
+import { freezeCluster, thawCluster } from '../../tools/db-faults.mjs';
+import { databaseUrl, removeCluster, startCluster, stopCluster } from '../../tools/db.mjs';
 
 export const FAULT_PGPORT = Number(process.env.TEST_FAULT_PGPORT ?? Number(process.env.TEST_PGPORT ?? 54339) + 1);
 export const FAULT_CLUSTER = `pg-faults-${FAULT_PGPORT}`;
@@ -30,32 +29,11 @@ export function removeFaultDatabase() {
   removeCluster({ name: FAULT_CLUSTER, port: FAULT_PGPORT });
 }
 
-/** The server's processes: the postmaster (from its pid file) and every process it started. */
-function serverPids() {
-  const { dataDir } = clusterPaths(FAULT_CLUSTER, FAULT_PGPORT);
-  const postmaster = Number(readFileSync(join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
-  const children = readdirSync('/proc')
-    .filter((name) => /^\d+$/.test(name))
-    .filter((name) => {
-      try {
-        // Field 4 of /proc/<pid>/stat is the parent; the command name before it may hold spaces.
-        const stat = readFileSync(`/proc/${name}/stat`, 'utf8');
-        return Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]) === postmaster;
-      } catch {
-        return false;
-      }
-    })
-    .map(Number);
-  return [postmaster, ...children];
-}
-
 /** Freezes the server (SIGSTOP): connections stay open but nothing answers, as behind a dead link. */
 export function freezeFaultDatabase() {
-  const pids = serverPids();
-  for (const pid of pids) process.kill(pid, 'SIGSTOP');
-  return pids;
+  return freezeCluster({ name: FAULT_CLUSTER, port: FAULT_PGPORT });
 }
 
 export function thawFaultDatabase(pids) {
-  for (const pid of pids) process.kill(pid, 'SIGCONT');
+  thawCluster(pids);
 }

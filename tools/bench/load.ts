@@ -17,16 +17,14 @@
  * and BENCH_WARMUP_S change the load, BENCH_ONLY picks phases, BENCH_PROFILE_DIR=<folder> has the
  * API write a CPU profile there.
  */
-import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { createServer } from 'node:net';
-import { fileURLToPath } from 'node:url';
 import autocannon, { type Request, type Result } from 'autocannon';
 import pg from 'pg';
 import demoPressure from '../../shared/examples/demo-pressure.json';
 import { removeBenchDatabase, startBenchDatabase } from './cluster.mjs';
+import { freePort, projectRoot, startScript as start, stopScripts, waitForHttp } from './processes';
 
-const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
 const PGPORT = Number(process.env.BENCH_PGPORT ?? 54349);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 32);
 const DURATION_S = Number(process.env.BENCH_DURATION_S ?? 20);
@@ -45,40 +43,10 @@ const PASSWORD = process.env.DEMO_PASSWORD || 'bridge-demo-2026';
 /** The whole run may take no longer than this; then everything is stopped. */
 const DEADLINE_MS = (7 * (DURATION_S + Number(process.env.BENCH_WARMUP_S ?? 5)) + 300) * 1000;
 
-const children: ChildProcess[] = [];
 let databaseStarted = false;
 
 function say(message: string) {
   process.stdout.write(`[load] ${message}\n`);
-}
-
-async function freePort(): Promise<number> {
-  const probe = createServer();
-  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
-  const { port } = probe.address() as { port: number };
-  await new Promise((resolve) => probe.close(resolve));
-  return port;
-}
-
-function start(label: string, script: string, env: Record<string, string>, nodeArgs: string[] = []): ChildProcess {
-  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'ignore', 'pipe'] });
-  child.stderr!.on('data', (chunk: Buffer) => process.stderr.write(`[${label}] ${chunk.toString('utf8')}`));
-  children.push(child);
-  return child;
-}
-
-async function waitForHttp(url: string, child: ChildProcess) {
-  const deadline = Date.now() + 30_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`${url}: the process ended with ${child.exitCode}`);
-    try {
-      await fetch(url, { signal: AbortSignal.timeout(1000) });
-      return;
-    } catch {
-      await new Promise((resolve) => setTimeout(resolve, 100));
-    }
-  }
-  throw new Error(`${url} did not answer within 30 s`);
 }
 
 /** Waits until the server answers a health check quickly again (work queued by a run is done). */
@@ -93,17 +61,8 @@ async function drained(url: string) {
   throw new Error('the server stayed busy for a minute after a run');
 }
 
-async function stopChild(child: ChildProcess) {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const ended = new Promise((resolve) => child.once('exit', resolve));
-  child.kill('SIGTERM');
-  const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
-  await ended;
-  clearTimeout(timer);
-}
-
 async function cleanUp() {
-  await Promise.all(children.map(stopChild));
+  await stopScripts();
   if (databaseStarted) {
     removeBenchDatabase(PGPORT);
     databaseStarted = false;
