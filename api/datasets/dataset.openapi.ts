@@ -1,9 +1,10 @@
 import { z } from 'zod';
-import { datasetListSchema, datasetPreviewSchema, datasetSchema, datasetSummarySchema, MAX_DATASET_BYTES } from '@shared/contracts/calibration';
+import { columnMappingSchema, datasetListSchema, datasetPreviewSchema, datasetSchema, datasetSummarySchema, MAX_DATASET_BYTES, previewMappingSchema } from '@shared/contracts/calibration';
 import type { Operation } from '../openapi/operation';
 
 const signedIn = 'any' as const;
 const multipart = `multipart/form-data: the CSV in the field "file" (at most ${MAX_DATASET_BYTES / (1024 * 1024)} MB, UTF-8, header row) and the ColumnMapping fields`;
+const fileDescription = `The bench CSV: UTF-8 text with a header row, at most ${MAX_DATASET_BYTES / (1024 * 1024)} MB`;
 
 export const datasetOperations: Operation[] = [
   {
@@ -22,6 +23,7 @@ export const datasetOperations: Operation[] = [
     tag: 'Calibration',
     access: signedIn,
     pathParameters: ['id'],
+    multipart: { file: 'file', fileDescription, fields: previewMappingSchema },
     responses: {
       200: { description: 'Preview', schema: datasetPreviewSchema },
       400: { description: 'Not a CSV text file (empty, binary, no header, no rows) or a mapping field not valid' },
@@ -36,6 +38,7 @@ export const datasetOperations: Operation[] = [
     tag: 'Calibration',
     access: signedIn,
     pathParameters: ['id'],
+    multipart: { file: 'file', fileDescription, fields: columnMappingSchema },
     responses: {
       201: { description: 'Stored', schema: datasetSummarySchema },
       400: { description: 'Not a CSV text file, a mapped column missing, or bad rows (paths like file.rows[214].readout)' },

@@ -23,6 +23,31 @@ function schemaFor(schema: z.ZodType, components: Record<string, JsonSchema>): J
   return JSON.parse(JSON.stringify(rest).replaceAll('"#/$defs/', '"#/components/schemas/')) as JsonSchema;
 }
 
+/** A multipart/form-data body: the file as binary, every other field written out inline. */
+function multipartBody(multipart: NonNullable<Operation['multipart']>, components: Record<string, JsonSchema>) {
+  type ObjectSchema = JsonSchema & { properties?: Record<string, JsonSchema>; required?: string[] };
+  const generated = z.toJSONSchema(multipart.fields, schemaOptions) as ObjectSchema;
+  const defs = generated['$defs'] as Record<string, JsonSchema> | undefined;
+  if (defs) for (const [key, value] of Object.entries(defs)) components[key] ??= withoutDialect(value);
+  // A registered schema comes as a reference to its definition: the form needs its fields themselves.
+  const ref = typeof generated['$ref'] === 'string' ? (generated['$ref'] as string) : '';
+  const inline = (ref.startsWith('#/$defs/') ? defs?.[ref.slice('#/$defs/'.length)] : generated) as ObjectSchema;
+  const fields = JSON.parse(JSON.stringify(inline.properties ?? {}).replaceAll('"#/$defs/', '"#/components/schemas/')) as Record<string, JsonSchema>;
+  return {
+    required: true,
+    content: {
+      'multipart/form-data': {
+        schema: {
+          type: 'object',
+          required: [multipart.file, ...(inline.required ?? [])],
+          properties: { [multipart.file]: { type: 'string', format: 'binary', description: multipart.fileDescription }, ...fields },
+        },
+        encoding: { [multipart.file]: { contentType: 'text/csv, text/plain, application/octet-stream' } },
+      },
+    },
+  };
+}
+
 function security(access: Operation['access']) {
   return access === 'public' ? [] : [{ bearer: [] }, { cookie: [] }];
 }
@@ -62,6 +87,7 @@ export function buildOpenApiDocument(operations: Operation[], version: string): 
       security: security(op.access),
       ...(parameters.length ? { parameters } : {}),
       ...(op.body ? { requestBody: { required: true, content: { 'application/json': { schema: schemaFor(op.body, components) } } } } : {}),
+      ...(op.multipart ? { requestBody: multipartBody(op.multipart, components) } : {}),
       responses,
     };
   }

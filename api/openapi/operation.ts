@@ -11,6 +11,8 @@ export interface Operation {
   /** Roles allowed; `public` for routes without sign-in, `any` for every signed-in role. */
   access: Role[] | 'public' | 'any';
   body?: z.ZodType;
+  /** A multipart/form-data body instead: one file field and the text fields of a zod object. */
+  multipart?: { file: string; fileDescription: string; fields: z.ZodObject };
   query?: z.ZodObject;
   pathParameters?: string[];
   responses: Record<number, { description: string; schema?: z.ZodType; contentType?: string }>;

@@ -3,6 +3,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
+import { columnMappingSchema } from '@shared/contracts/calibration';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createApp, operations } from '../../api/app';
 import { ConfigError, loadConfig } from '../../api/config';
@@ -54,6 +55,21 @@ describe('API documentation', () => {
     expect(createUser.required).toEqual(expect.arrayContaining(['email', 'displayName', 'role', 'password']));
     const listParameters = response.body.paths['/api/users'].get.parameters.map((p: { name: string }) => p.name);
     expect(listParameters).toEqual(expect.arrayContaining(['page', 'pageSize', 'sort', 'order', 'q']));
+  });
+
+  it('documents the bench-file uploads as multipart forms: the file and every mapping field the route reads', async () => {
+    const response = await request(app).get('/api/openapi.json');
+    const mappingFields = Object.keys(columnMappingSchema.shape).sort();
+    for (const [path, required] of [
+      ['/api/designs/{id}/datasets', ['file', 'referenceColumn', 'referenceUnit', 'readoutColumn', 'readoutUnit', 'cellColumn', 'runColumn', 'directionColumn']],
+      ['/api/designs/{id}/datasets/preview', ['file']],
+    ] as const) {
+      const form = response.body.paths[path].post.requestBody.content['multipart/form-data'].schema;
+      expect(form.properties.file).toMatchObject({ type: 'string', format: 'binary' });
+      expect(Object.keys(form.properties).filter((name) => name !== 'file').sort(), path).toEqual(mappingFields);
+      expect([...form.required].sort(), path).toEqual([...required].sort());
+      expect(form.properties.referenceUnit.enum).toEqual(expect.arrayContaining(['Pa', 'kPa', 'mL/min']));
+    }
   });
 
   it('documents only routes that exist: each answers something other than the JSON 404 for unknown routes', async () => {
