@@ -1,4 +1,5 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogActions, MatDialogClose, MatDialogContent, MatDialogTitle } from '@angular/material/dialog';
@@ -9,7 +10,12 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import type { Review } from '@shared/contracts/reviews-api';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
+import { catchError, EMPTY, map, switchMap, takeWhile, timer } from 'rxjs';
 import { ReviewsApi } from './reviews-api';
+
+/** While the e-mail is pending, the dialog asks again this often, for at most MAIL_WATCH_TIMES times. */
+export const MAIL_WATCH_MS = 2000;
+export const MAIL_WATCH_TIMES = 30;
 
 export interface ShareRequest {
   designId: string;
@@ -33,6 +39,7 @@ export interface ShareRequest {
               The e-mail has been sent.
             } @else {
               The e-mail is pending: it goes out as soon as the mail server takes it, and nothing is lost meanwhile.
+              <span class="watching" data-testid="mail-watching">This message updates when it has gone out.</span>
             }
           </span>
         </p>
@@ -100,6 +107,11 @@ export interface ShareRequest {
     .result mat-icon {
       flex: none;
     }
+    .watching {
+      display: block;
+      margin-top: 4px;
+      color: var(--mat-sys-on-surface-variant);
+    }
     .alert {
       padding: 8px 12px;
       border-radius: 8px;
@@ -112,6 +124,7 @@ export interface ShareRequest {
 export class ShareDialog {
   protected readonly data = inject<ShareRequest>(MAT_DIALOG_DATA);
   private readonly api = inject(ReviewsApi);
+  private readonly destroyRef = inject(DestroyRef);
 
   protected readonly form = new FormGroup({
     reviewerEmail: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.email] }),
@@ -133,6 +146,7 @@ export class ShareDialog {
       next: (review) => {
         this.sending.set(false);
         this.shared.set(review);
+        if (review.notification === 'pending') this.watchMail(review);
       },
       error: (error: unknown) => {
         this.sending.set(false);
@@ -141,5 +155,20 @@ export class ShareDialog {
         this.failure.set(problem.errors.length > 0 && unmatched.length === 0 ? null : problem.detail);
       },
     });
+  }
+
+  /** Asks for the review again until the outbox has sent its e-mail (or for a minute at most). */
+  private watchMail(review: Review): void {
+    timer(MAIL_WATCH_MS, MAIL_WATCH_MS)
+      .pipe(
+        takeWhile((turn) => turn < MAIL_WATCH_TIMES),
+        switchMap(() => this.api.ofDesign(review.design.id).pipe(catchError(() => EMPTY))),
+        map((reviews) => reviews.find((candidate) => candidate.id === review.id)),
+        takeWhile((latest) => latest?.notification !== 'sent', true),
+        takeUntilDestroyed(this.destroyRef),
+      )
+      .subscribe((latest) => {
+        if (latest) this.shared.set(latest);
+      });
   }
 }
