@@ -2,9 +2,15 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
+import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatMenuHarness } from '@angular/material/menu/testing';
+import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import type { DesignList, DesignSummary, KeyFigures } from '@shared/contracts/designs-api';
 import { Designs } from './designs';
 import { of } from 'rxjs';
@@ -93,6 +99,15 @@ describe('Designs', () => {
     return Object.fromEntries(all.keys().map((key) => [key, all.get(key)]));
   }
 
+  /** Waits for the dialog's closing animation to end; fails when a dialog is still open after two seconds. */
+  async function closed(overlays: HarnessLoader): Promise<void> {
+    for (let attempt = 0; attempt < 200; attempt++) {
+      if ((await overlays.getAllHarnesses(MatDialogHarness)).length === 0) return;
+      await new Promise((resolve) => setTimeout(resolve, 10));
+    }
+    fail('the dialog is still open');
+  }
+
   function rows(): HTMLElement[] {
     return Array.from((fixture.nativeElement as HTMLElement).querySelectorAll<HTMLElement>('tr.mat-mdc-row:not(.no-data)'));
   }
@@ -153,5 +168,59 @@ describe('Designs', () => {
     (await nextList()).flush({ status: 500, title: 'Server error', detail: 'The database is not reachable.', errors: [] }, { status: 500, statusText: 'Server Error' });
     await fixture.whenStable();
     expect(fixture.nativeElement.querySelector('[data-testid="designs-error"]')?.textContent).toContain('The database is not reachable.');
+  });
+  it('should rename a design from its row menu and show the list again from the server', async () => {
+    (await nextList()).flush(answer);
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const overlays = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const [menu] = await loader.getAllHarnesses(MatMenuHarness.with({ triggerText: 'more_vert' }));
+    await menu.open();
+    expect((await menu.getItems()).length).toBe(4);
+    await menu.clickItem({ text: /Rename/ });
+
+    const dialog = await overlays.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Rename design');
+    const name = await overlays.getHarness(MatInputHarness.with({ selector: '[data-testid="rename-design-name"]' }));
+    expect(await name.getValue()).toBe('Line sensor, pressure');
+    await name.setValue(' Line sensor, pressure (rev B) ');
+    await (await overlays.getHarness(MatButtonHarness.with({ text: 'Save' }))).click();
+
+    const patch = http.expectOne(`/api/designs/${answer.items[0].id}`);
+    expect(patch.request.method).toBe('PATCH');
+    expect(patch.request.body).toEqual({ name: 'Line sensor, pressure (rev B)' });
+    const renamed = { ...answer.items[0], name: 'Line sensor, pressure (rev B)' };
+    patch.flush(renamed);
+
+    const reload = await nextList();
+    expect(params(reload)).toEqual({ page: '0', pageSize: '20', sort: 'updatedAt', order: 'desc', archived: 'false' });
+    reload.flush({ ...answer, items: [renamed, answer.items[1]] });
+    await fixture.whenStable();
+    expect(rows()[0].textContent).toContain('Line sensor, pressure (rev B)');
+    await closed(overlays);
+    const snackBar = await overlays.getHarness(MatSnackBarHarness);
+    expect(await snackBar.getMessage()).toBe('Renamed “Line sensor, pressure” to “Line sensor, pressure (rev B)”.');
+  });
+
+  it('should offer Rename for an archived design as well', async () => {
+    (await nextList()).flush({ ...answer, items: [design(3, 'Old bench rig', figures({}), true)], total: 1 });
+    await fixture.whenStable();
+    const menu = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatMenuHarness.with({ triggerText: 'more_vert' }));
+    await menu.open();
+    const labels = Array.from(document.querySelectorAll('.mat-mdc-menu-panel [mat-menu-item] > span'), (label) => label.textContent?.trim());
+    expect(labels).toEqual(['Rename', 'Duplicate', 'Export version 5 as JSON', 'Restore']);
+    await menu.close();
+  });
+
+  it('should leave the list alone when the rename is cancelled', async () => {
+    (await nextList()).flush(answer);
+    await fixture.whenStable();
+    const overlays = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const [menu] = await TestbedHarnessEnvironment.loader(fixture).getAllHarnesses(MatMenuHarness.with({ triggerText: 'more_vert' }));
+    await menu.open();
+    await menu.clickItem({ text: /Rename/ });
+    await (await overlays.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
+    await closed(overlays);
+    http.expectNone((request) => request.method === 'PATCH' || request.url === '/api/designs');
   });
 });

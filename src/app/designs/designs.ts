@@ -38,6 +38,7 @@ import { ArchivedFilter, DesignListQuery, DesignSortKey, DesignsApi } from './de
 import { ImportProblemsDialog, type ImportProblems } from './import-problems-dialog';
 import { headroomText, noiseText, resolutionText } from './key-figures';
 import { NewDesignDialog } from './new-design-dialog';
+import { RenameDesignDialog } from './rename-design-dialog';
 import { DesignReviewState } from '../reviews/design-review-state';
 
 const SORTABLE = new Set<string>(['name', 'latestVersion', 'updatedAt', 'createdAt']);
@@ -179,6 +180,18 @@ export class Designs {
       this.snackBar.open(`Created “${created.name}”.`, 'Open', { duration: 6000 }).onAction().subscribe(() => void this.router.navigate(['/designs', created.id]));
       this.list.reload();
     });
+  }
+
+  /** Archived designs can be renamed too: the API refuses only new versions of them. */
+  protected rename(design: DesignSummary): void {
+    this.dialog
+      .open(RenameDesignDialog, { width: '480px', data: design })
+      .afterClosed()
+      .subscribe((renamed: DesignSummary | undefined) => {
+        if (!renamed) return;
+        this.snackBar.open(`Renamed “${design.name}” to “${renamed.name}”.`, 'Close', { duration: 4000 });
+        this.list.reload();
+      });
   }
 
   protected setArchived(design: DesignSummary, archived: boolean): void {
