@@ -1,5 +1,6 @@
 import bcrypt from 'bcryptjs';
 import { afterAll, describe, expect, it } from 'vitest';
+import { turnsDuring } from '../../test/support/event-loop';
 import { closePasswordWorkers, hashPassword, verifyPassword } from './password-hashing';
 
 afterAll(() => closePasswordWorkers());
@@ -21,18 +22,8 @@ describe('password hashing in worker threads', () => {
 
   it('leaves the main thread free while a costly hash runs', async () => {
     await hashPassword('start the worker first', 4);
-    let turns = 0;
-    let hashing = true;
-    const counting = (async () => {
-      while (hashing) {
-        await new Promise((resolve) => setImmediate(resolve));
-        turns += 1;
-      }
-    })();
     // Cost 12 is 2^12 rounds: a quarter of a second or more. On the main thread no turn would run.
-    await hashPassword('a costly hash', 12);
-    hashing = false;
-    await counting;
+    const { turns } = await turnsDuring(() => hashPassword('a costly hash', 12));
     expect(turns).toBeGreaterThan(10);
   });
 });

@@ -1,6 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { loadDesign } from '@shared/contracts/design-loader';
 import demoPressure from '@shared/examples/demo-pressure.json';
+import { turnsDuring } from '../../test/support/event-loop';
 import { reportSpectrum } from './report-spectrum';
 import { closeReportWorkers, simulateReportSpectrum } from './report-workers';
 
@@ -10,17 +11,7 @@ describe('the report spectrum in a worker thread', () => {
   it('is the same spectrum as the one computed in the process, while the main thread stays free', async () => {
     const loaded = loadDesign(demoPressure);
     if (!loaded.ok) throw new Error('the demo design does not load');
-    let turns = 0;
-    let running = true;
-    const counting = (async () => {
-      while (running) {
-        await new Promise((resolve) => setImmediate(resolve));
-        turns += 1;
-      }
-    })();
-    const fromWorker = await simulateReportSpectrum(loaded.design);
-    running = false;
-    await counting;
+    const { value: fromWorker, turns } = await turnsDuring(() => simulateReportSpectrum(loaded.design));
     // The simulation takes half a second or more of one core; had it run here, no turn would have.
     expect(turns).toBeGreaterThan(10);
 

@@ -1,19 +1,12 @@
 // The API as its own process (`node --import tsx api/main.ts`), for tests of what only a real
 // process shows: surviving a database outage, and a graceful shutdown on SIGTERM.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
 import { fileURLToPath } from 'node:url';
+import { freePort } from '../../tools/bench/processes';
 
 const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
 
-/** A loopback port nobody listens on right now. */
-export async function freePort(): Promise<number> {
-  const probe = createServer();
-  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
-  const { port } = probe.address() as { port: number };
-  await new Promise((resolve) => probe.close(resolve));
-  return port;
-}
+export { freePort };
 
 export interface ApiProcess {
   url: string;

@@ -23,7 +23,7 @@ import autocannon, { type Request, type Result } from 'autocannon';
 import pg from 'pg';
 import demoPressure from '../../shared/examples/demo-pressure.json';
 import { removeBenchDatabase, startBenchDatabase } from './cluster.mjs';
-import { freePort, projectRoot, startScript as start, stopScripts, waitForHttp } from './processes';
+import { freePort, projectRoot, runBounded, startScript as start, stopScripts, waitForHttp } from './processes';
 
 const PGPORT = Number(process.env.BENCH_PGPORT ?? 54349);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 32);
@@ -248,21 +248,4 @@ async function main() {
   report(rows, baseline);
 }
 
-const deadline = setTimeout(() => {
-  process.stderr.write(`[load] not done after ${DEADLINE_MS / 1000} s: stopping everything\n`);
-  void cleanUp().finally(() => process.exit(1));
-}, DEADLINE_MS);
-deadline.unref();
-for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.on(signal, () => void cleanUp().finally(() => process.exit(130)));
-}
-
-try {
-  await main();
-} catch (error) {
-  process.stderr.write(`[load] ${error instanceof Error ? error.stack : String(error)}\n`);
-  process.exitCode = 1;
-} finally {
-  await cleanUp();
-  clearTimeout(deadline);
-}
+await runBounded('load', DEADLINE_MS, main, cleanUp);

@@ -21,7 +21,7 @@ import bcrypt from 'bcryptjs';
 import pg from 'pg';
 import demoPressure from '../../shared/examples/demo-pressure.json';
 import { outageDatabase } from './cluster.mjs';
-import { freePort, projectRoot, startScript, stopScripts, waitForHttp } from './processes';
+import { freePort, projectRoot, runBounded, startScript, stopScripts, waitForHttp } from './processes';
 
 const PGPORT = Number(process.env.OUTAGE_PGPORT ?? 54358);
 const WRITERS = Number(process.env.OUTAGE_WRITERS ?? 8);
@@ -252,16 +252,7 @@ async function cleanUp() {
   }
 }
 
-const deadline = setTimeout(() => {
-  process.stderr.write(`[outage] not done after ${DEADLINE_MS / 1000} s: stopping everything\n`);
-  void cleanUp().finally(() => process.exit(1));
-}, DEADLINE_MS);
-deadline.unref();
-for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.on(signal, () => void cleanUp().finally(() => process.exit(130)));
-}
-
-try {
+await runBounded('outage', DEADLINE_MS, async () => {
   await main();
   if (failures.length > 0) {
     process.stdout.write(`\n${failures.length} check(s) failed:\n${[...new Set(failures)].slice(0, 20).map((f) => `  - ${f}`).join('\n')}\n`);
@@ -269,10 +260,4 @@ try {
   } else {
     process.stdout.write('\nevery check passed\n');
   }
-} catch (error) {
-  process.stderr.write(`[outage] ${error instanceof Error ? error.stack : String(error)}\n`);
-  process.exitCode = 1;
-} finally {
-  await cleanUp();
-  clearTimeout(deadline);
-}
+}, cleanUp);

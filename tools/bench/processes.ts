@@ -50,3 +50,27 @@ async function stopChild(child: ChildProcess): Promise<void> {
 export async function stopScripts(): Promise<void> {
   await Promise.all(children.map(stopChild));
 }
+
+/**
+ * Runs a script's main part bounded in time: Ctrl+C, SIGTERM or the deadline stop everything it
+ * started (cleanUp) and end the process; an error is printed and sets exit code 1; cleanUp always runs.
+ */
+export async function runBounded(label: string, deadlineMs: number, main: () => Promise<void>, cleanUp: () => Promise<void>): Promise<void> {
+  const deadline = setTimeout(() => {
+    process.stderr.write(`[${label}] not done after ${deadlineMs / 1000} s: stopping everything\n`);
+    void cleanUp().finally(() => process.exit(1));
+  }, deadlineMs);
+  deadline.unref();
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.on(signal, () => void cleanUp().finally(() => process.exit(130)));
+  }
+  try {
+    await main();
+  } catch (error) {
+    process.stderr.write(`[${label}] ${error instanceof Error ? error.stack : String(error)}\n`);
+    process.exitCode = 1;
+  } finally {
+    await cleanUp();
+    clearTimeout(deadline);
+  }
+}
