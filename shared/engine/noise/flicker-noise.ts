@@ -59,8 +59,7 @@ export class FlickerNoise {
   private readonly residues: Float64Array;
   private readonly direct: number;
   private readonly states: Float64Array;
-  private flickerBlock = new Float64Array(0);
-  private whiteBlock = new Float64Array(0);
+  private driving = new Float64Array(0);
 
   constructor(spec: FlickerNoiseSpec, random: Xoshiro128StarStar) {
     const { density, corner, sampleRate, lowestFrequency } = spec;
@@ -130,33 +129,74 @@ export class FlickerNoise {
 
   /** Overwrites out with the next block of noise [unit]. */
   fill(out: Float64Array): void {
-    out.fill(0);
-    this.addTo(out);
+    const driving = this.drive(out.length);
+    this.gaussian.fill(out, this.whiteStandardDeviation);
+    this.shape(driving, out);
   }
 
-  /** Adds the next block of noise [unit] to signal, in place. */
+  /** Adds the next block of noise [unit] to signal, in place (the same stream as fill). */
   addTo(signal: Float64Array): void {
-    const length = signal.length;
-    if (this.flickerBlock.length < length) {
-      this.flickerBlock = new Float64Array(length);
-      this.whiteBlock = new Float64Array(length);
-    }
-    const driving = this.flickerBlock.subarray(0, length);
-    const white = this.whiteBlock.subarray(0, length);
+    const driving = this.drive(signal.length);
+    this.gaussian.addTo(signal, this.whiteStandardDeviation);
+    this.shape(driving, signal);
+  }
+
+  /** The next block of unit white noise driving the shaping filter (drawn before the white floor). */
+  private drive(length: number): Float64Array {
+    if (this.driving.length < length) this.driving = new Float64Array(length);
+    const driving = this.driving.subarray(0, length);
     this.gaussian.fill(driving);
-    this.gaussian.fill(white, this.whiteStandardDeviation);
-    const direct = this.direct;
-    for (let n = 0; n < length; n++) signal[n] += direct * driving[n] + white[n];
-    // One pass per pole, its state in a local.
-    for (let k = 0; k < this.poleCount; k++) {
-      const a = this.poles[k];
-      const r = this.residues[k];
-      let state = this.states[k];
+    return driving;
+  }
+
+  /**
+   * Adds the shaping filter's response to `driving` onto signal: the direct term and the poles,
+   * four poles per pass over the block (their states in locals, independent recursions the
+   * processor can overlap), then any remaining poles one per pass.
+   */
+  private shape(driving: Float64Array, signal: Float64Array): void {
+    const length = signal.length;
+    const { poles, residues, states } = this;
+    const count = this.poleCount;
+    let direct = this.direct;
+    let k = 0;
+    for (; k + 4 <= count; k += 4) {
+      const a0 = poles[k];
+      const a1 = poles[k + 1];
+      const a2 = poles[k + 2];
+      const a3 = poles[k + 3];
+      const r0 = residues[k];
+      const r1 = residues[k + 1];
+      const r2 = residues[k + 2];
+      const r3 = residues[k + 3];
+      let x0 = states[k];
+      let x1 = states[k + 1];
+      let x2 = states[k + 2];
+      let x3 = states[k + 3];
+      for (let n = 0; n < length; n++) {
+        const d = driving[n];
+        x0 = a0 * x0 + r0 * d;
+        x1 = a1 * x1 + r1 * d;
+        x2 = a2 * x2 + r2 * d;
+        x3 = a3 * x3 + r3 * d;
+        signal[n] += direct * d + (x0 + x1 + (x2 + x3));
+      }
+      states[k] = x0;
+      states[k + 1] = x1;
+      states[k + 2] = x2;
+      states[k + 3] = x3;
+      direct = 0;
+    }
+    if (direct !== 0) for (let n = 0; n < length; n++) signal[n] += direct * driving[n];
+    for (; k < count; k++) {
+      const a = poles[k];
+      const r = residues[k];
+      let state = states[k];
       for (let n = 0; n < length; n++) {
         state = a * state + r * driving[n];
         signal[n] += state;
       }
-      this.states[k] = state;
+      states[k] = state;
     }
   }
 }

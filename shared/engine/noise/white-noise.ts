@@ -16,7 +16,6 @@ export class WhiteNoise {
   /** RMS value per sample [unit]: e sqrt(fs / 2). */
   readonly standardDeviation: number;
   private readonly gaussian: GaussianSource;
-  private scratch = new Float64Array(0);
 
   constructor(spec: WhiteNoiseSpec, random: Xoshiro128StarStar) {
     assertNoiseSpec(spec.density, spec.sampleRate);
@@ -31,10 +30,7 @@ export class WhiteNoise {
 
   /** Adds the next block of noise [unit] to signal, in place. */
   addTo(signal: Float64Array): void {
-    if (this.scratch.length < signal.length) this.scratch = new Float64Array(signal.length);
-    const block = this.scratch.subarray(0, signal.length);
-    this.gaussian.fill(block, this.standardDeviation);
-    for (let n = 0; n < signal.length; n++) signal[n] += block[n];
+    this.gaussian.addTo(signal, this.standardDeviation);
   }
 }
 

@@ -15,7 +15,6 @@ export class GainProcessor implements NodeProcessor {
   private readonly feedback: number;
   private readonly limit: number;
   private readonly noise: NoiseBlock | null;
-  private noiseBlock = new Float64Array(0);
   private x = 0;
   private w = 0;
 
@@ -36,11 +35,10 @@ export class GainProcessor implements NodeProcessor {
     const length = input.length;
     let source = input;
     if (this.noise !== null) {
-      if (this.noiseBlock.length < length) this.noiseBlock = new Float64Array(length);
-      const e = this.noiseBlock.subarray(0, length);
-      this.noise.fill(e);
-      for (let n = 0; n < length; n++) e[n] += input[n];
-      source = e;
+      // Input plus noise in the output block, then the pole in place (it reads each sample before writing it).
+      output.set(input);
+      this.noise.addTo(output);
+      source = output;
     }
     const { gain, feedback, limit } = this;
     let { x, w } = this;

@@ -16,7 +16,6 @@ export class LowPassProcessor implements NodeProcessor {
   private readonly filter: SosFilter;
   private readonly limit: number;
   private readonly noise: NoiseBlock | null;
-  private noiseBlock = new Float64Array(0);
 
   constructor(parameters: LowPassStage, context: StageContext, sampleRate: number, noise: ProcessorNoise | null = null) {
     const sos = lowPassSos(parameters.response, parameters.order, parameters.corner, sampleRate);
@@ -33,10 +32,8 @@ export class LowPassProcessor implements NodeProcessor {
   process(input: Float64Array, output: Float64Array): void {
     const length = input.length;
     if (this.noise !== null) {
-      if (this.noiseBlock.length < length) this.noiseBlock = new Float64Array(length);
-      const e = this.noiseBlock.subarray(0, length);
-      this.noise.fill(e);
-      for (let n = 0; n < length; n++) output[n] = input[n] + e[n];
+      output.set(input);
+      this.noise.addTo(output);
       this.filter.process(output, output);
     } else {
       this.filter.process(input, output);

@@ -28,7 +28,10 @@ export interface NodeProcessor extends BlockProcessor {
 
 /** Block source of one noise process [V or C per sample]. */
 export interface NoiseBlock {
+  /** Overwrites out with the next block. */
   fill(out: Float64Array): void;
+  /** Adds the next block onto signal in place; the same stream as fill. */
+  addTo(signal: Float64Array): void;
 }
 
 /**
