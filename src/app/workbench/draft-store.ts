@@ -32,16 +32,20 @@ export class DraftStore {
     for (let i = 0; i < localStorage.length; i++) {
       const key = localStorage.key(i);
       if (key === null || !key.startsWith(`${PREFIX}${designId}.`)) continue;
-      const draft = this.read(key);
+      const draft = this.read(key, designId);
       if (draft !== null && (newest === null || draft.savedAt > newest.savedAt)) newest = draft;
     }
     return newest;
   }
 
-  private read(key: string): Draft | null {
+  /** The draft stored under a key, or null for anything else: unreadable text, a missing or non-object document, another design's draft. */
+  private read(key: string, designId: string): Draft | null {
     try {
-      const value = JSON.parse(localStorage.getItem(key) ?? 'null') as Draft | null;
-      return value !== null && typeof value.baseVersion === 'number' && typeof value.savedAt === 'string' && typeof value.document === 'object' ? value : null;
+      const value = JSON.parse(localStorage.getItem(key) ?? 'null') as Partial<Draft> | null;
+      if (typeof value !== 'object' || value === null) return null;
+      const { document } = value;
+      const isDocument = typeof document === 'object' && document !== null && !Array.isArray(document);
+      return value.designId === designId && typeof value.baseVersion === 'number' && typeof value.savedAt === 'string' && isDocument ? (value as Draft) : null;
     } catch {
       return null;
     }
