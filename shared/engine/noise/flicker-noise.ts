@@ -152,7 +152,7 @@ export class FlickerNoise {
   /**
    * Adds the shaping filter's response to `driving` onto signal: the direct term and the poles,
    * four poles per pass over the block (their states in locals, independent recursions the
-   * processor can overlap), then any remaining poles one per pass.
+   * processor can overlap), then the one to three poles left in one more pass.
    */
   private shape(driving: Float64Array, signal: Float64Array): void {
     const length = signal.length;
@@ -187,16 +187,40 @@ export class FlickerNoise {
       states[k + 3] = x3;
       direct = 0;
     }
-    if (direct !== 0) for (let n = 0; n < length; n++) signal[n] += direct * driving[n];
-    for (; k < count; k++) {
+    const remaining = count - k;
+    if (remaining >= 2) {
+      // Two or three poles left: one pass, a missing third as a zero pole (it stays at 0).
+      const a0 = poles[k];
+      const a1 = poles[k + 1];
+      const a2 = remaining === 3 ? poles[k + 2] : 0;
+      const r0 = residues[k];
+      const r1 = residues[k + 1];
+      const r2 = remaining === 3 ? residues[k + 2] : 0;
+      let x0 = states[k];
+      let x1 = states[k + 1];
+      let x2 = remaining === 3 ? states[k + 2] : 0;
+      for (let n = 0; n < length; n++) {
+        const d = driving[n];
+        x0 = a0 * x0 + r0 * d;
+        x1 = a1 * x1 + r1 * d;
+        x2 = a2 * x2 + r2 * d;
+        signal[n] += direct * d + (x0 + x1 + x2);
+      }
+      states[k] = x0;
+      states[k + 1] = x1;
+      if (remaining === 3) states[k + 2] = x2;
+    } else if (remaining === 1) {
       const a = poles[k];
       const r = residues[k];
       let state = states[k];
       for (let n = 0; n < length; n++) {
-        state = a * state + r * driving[n];
-        signal[n] += state;
+        const d = driving[n];
+        state = a * state + r * d;
+        signal[n] += direct * d + state;
       }
       states[k] = state;
+    } else if (direct !== 0) {
+      for (let n = 0; n < length; n++) signal[n] += direct * driving[n];
     }
   }
 }
