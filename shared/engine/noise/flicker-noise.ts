@@ -60,6 +60,11 @@ export class FlickerNoise {
   private readonly direct: number;
   private readonly states: Float64Array;
   private driving = new Float64Array(0);
+  /** True when the white floor is drawn as a second Gaussian per sample instead of folded into the filter. */
+  readonly separateWhite: boolean;
+  private readonly poleTheta: Float64Array;
+  private readonly shapeZeroTheta: Float64Array;
+  private readonly shapeGain: number;
 
   constructor(spec: FlickerNoiseSpec, random: Xoshiro128StarStar) {
     const { density, corner, sampleRate, lowestFrequency } = spec;
@@ -91,9 +96,25 @@ export class FlickerNoise {
     // frequency, less the design's known error there.
     const target = (density * density * corner) / (REFERENCE_FREQUENCY * sampleRate);
     const designed = (2 / sampleRate) * squaredMagnitude(poleTheta, zeroTheta, 2 * Math.PI * REFERENCE_FREQUENCY);
-    const gain = Math.sqrt((target / designed) * Math.pow(10, REFERENCE_ERROR_DB / 10));
+    const flickerGain = Math.sqrt((target / designed) * Math.pow(10, REFERENCE_ERROR_DB / 10));
 
-    // Partial fractions H = direct + sum r_k / (1 - a_k z^-1); differences of exponentials through
+    // White floor folded into the filter: sigma^2 + g^2 |H|^2 = |G|^2 for G with the same poles and
+    // the zeros of sigma^2 |A|^2 + g^2 |B|^2 (its spectral factor), so one unit Gaussian per sample
+    // drives the whole noise. When those zeros cannot all be found as real roots (above a corner of
+    // about 2.5e-3 fs two of them leave the real axis), the floor is drawn as a second Gaussian.
+    const sigma = this.whiteStandardDeviation;
+    const combined = flickerGain === 0 ? poleTheta.slice() : sigma === 0 ? zeroTheta.slice() : spectralFactorZeros(poleTheta, zeroTheta, sigma, flickerGain);
+    this.separateWhite = combined === null;
+    const shapeZeroTheta = combined ?? zeroTheta;
+    const gain =
+      combined === null
+        ? flickerGain
+        : Math.sqrt((sigma * sigma + flickerGain * flickerGain * squaredMagnitude(poleTheta, zeroTheta, Math.PI)) / squaredMagnitude(poleTheta, shapeZeroTheta, Math.PI));
+    this.shapeZeroTheta = Float64Array.from(shapeZeroTheta);
+    this.poleTheta = Float64Array.from(poleTheta);
+    this.shapeGain = gain;
+
+    // Partial fractions G = direct + sum r_k / (1 - a_k z^-1); differences of exponentials through
     // expm1 keep their precision for the poles close to z = 1.
     const difference = (thetaA: number, thetaB: number): number => -Math.exp(-thetaA) * Math.expm1(thetaA - thetaB);
     this.residues = new Float64Array(count);
@@ -101,13 +122,13 @@ export class FlickerNoise {
       let residue = gain;
       for (let j = 0; j < count; j++) {
         // (1 - b_j / a_k) and (1 - a_j / a_k), each written as (a_k - x) / a_k.
-        residue *= difference(poleTheta[k], zeroTheta[j]) / this.poles[k];
+        residue *= difference(poleTheta[k], shapeZeroTheta[j]) / this.poles[k];
         if (j !== k) residue /= difference(poleTheta[k], poleTheta[j]) / this.poles[k];
       }
       this.residues[k] = residue;
     }
     let direct = gain;
-    for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - zeroTheta[k]);
+    for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - shapeZeroTheta[k]);
     this.direct = direct;
 
     // Stationary start: covariance P_ij = r_i r_j / (1 - a_i a_j). The factor L L^T of the matrix
@@ -130,15 +151,24 @@ export class FlickerNoise {
   /** Overwrites out with the next block of noise [unit]. */
   fill(out: Float64Array): void {
     const driving = this.drive(out.length);
-    this.gaussian.fill(out, this.whiteStandardDeviation);
+    if (this.separateWhite) this.gaussian.fill(out, this.whiteStandardDeviation);
+    else out.fill(0);
     this.shape(driving, out);
   }
 
   /** Adds the next block of noise [unit] to signal, in place (the same stream as fill). */
   addTo(signal: Float64Array): void {
     const driving = this.drive(signal.length);
-    this.gaussian.addTo(signal, this.whiteStandardDeviation);
+    if (this.separateWhite) this.gaussian.addTo(signal, this.whiteStandardDeviation);
     this.shape(driving, signal);
+  }
+
+  /** One-sided density [unit^2/Hz] the generator produces at frequency f (0 < f <= fs/2), by its design. */
+  designedDensity(frequency: number, sampleRate: number): number {
+    const omega = (2 * Math.PI * frequency) / sampleRate;
+    const shaped = this.shapeGain * this.shapeGain * squaredMagnitude(Array.from(this.poleTheta), Array.from(this.shapeZeroTheta), omega);
+    const white = this.separateWhite ? this.whiteStandardDeviation * this.whiteStandardDeviation : 0;
+    return (2 / sampleRate) * (shaped + white);
   }
 
   /** The next block of unit white noise driving the shaping filter (drawn before the white floor). */
@@ -237,6 +267,66 @@ function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: numbe
   let value = 1;
   for (let k = 0; k < poleTheta.length; k++) value *= term(zeroTheta[k]) / term(poleTheta[k]);
   return value;
+}
+
+/**
+ * The zeros (as theta, the zero at exp(-theta)) of the minimum-phase factor of
+ * sigma^2 |A|^2 + g^2 |B|^2 with A = prod (1 - exp(-poleTheta) z^-1), B likewise of zeroTheta. On the
+ * real axis z = exp(-phi) that Laurent polynomial is
+ *   N(phi) = sigma^2 prod (1 - e^(phi - pole)) (1 - e^(-phi - pole)) + g^2 prod (same with zeros),
+ * evaluated here as signs and logarithms (no overflow for large phi, no cancellation near z = 1).
+ * It has as many zeros inside the unit circle as there are poles; the real positive ones show as sign
+ * changes of N(phi), bracketed on a grid of 200 points per decade and refined by bisection. Returns
+ * null unless all of them are found that way.
+ */
+function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: number, gain: number): number[] | null {
+  const logFactors = (phi: number, thetas: number[], scale: number): { sign: number; log: number } => {
+    let sign = 1;
+    let log = 2 * Math.log(scale);
+    for (const theta of thetas) {
+      const u = phi - theta;
+      if (u > 0) {
+        sign = -sign;
+        log += u > 1 ? u + Math.log1p(-Math.exp(-u)) : Math.log(Math.expm1(u));
+      } else {
+        log += Math.log(-Math.expm1(u));
+      }
+      log += Math.log(-Math.expm1(-phi - theta));
+    }
+    return { sign, log };
+  };
+  const signAt = (phi: number): number => {
+    const a = logFactors(phi, poleTheta, sigma);
+    const b = logFactors(phi, zeroTheta, gain);
+    if (a.sign === b.sign || a.log === b.log) return a.log === b.log && a.sign !== b.sign ? 0 : a.sign;
+    return a.log > b.log ? a.sign : b.sign;
+  };
+  const all = [...poleTheta, ...zeroTheta];
+  const low = Math.log10(Math.min(...all)) - 2;
+  const high = Math.log10(Math.max(...all)) + 2;
+  const roots: number[] = [];
+  const steps = Math.ceil((high - low) * 200);
+  let previousPhi = Math.pow(10, low);
+  let previousSign = signAt(previousPhi);
+  for (let step = 1; step <= steps; step++) {
+    const phi = Math.pow(10, low + ((high - low) * step) / steps);
+    const sign = signAt(phi);
+    if (sign === 0) return null;
+    if (sign !== previousSign) {
+      let a = previousPhi;
+      let b = phi;
+      for (let iteration = 0; iteration < 200; iteration++) {
+        const middle = 0.5 * (a + b);
+        if (middle === a || middle === b) break;
+        if (signAt(middle) === previousSign) a = middle;
+        else b = middle;
+      }
+      roots.push(0.5 * (a + b));
+    }
+    previousPhi = phi;
+    previousSign = sign;
+  }
+  return roots.length === poleTheta.length ? roots : null;
 }
 
 /** Lower-triangular L with L L^T = matrix (size x size, row-major). */
