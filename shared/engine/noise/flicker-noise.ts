@@ -103,7 +103,7 @@ export class FlickerNoise {
     // drives the whole noise. When those zeros cannot all be found as real roots (above a corner of
     // about 2.5e-3 fs two of them leave the real axis), the floor is drawn as a second Gaussian.
     const sigma = this.whiteStandardDeviation;
-    const combined = flickerGain === 0 ? poleTheta.slice() : sigma === 0 ? zeroTheta.slice() : spectralFactorZeros(poleTheta, zeroTheta, sigma, flickerGain);
+    const combined = flickerGain === 0 ? poleTheta.slice() : sigma === 0 ? zeroTheta.slice() : cachedSpectralFactorZeros(poleTheta, zeroTheta, sigma / flickerGain);
     this.separateWhite = combined === null;
     const shapeZeroTheta = combined ?? zeroTheta;
     const gain =
@@ -270,13 +270,32 @@ function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: numbe
 }
 
 /**
+ * The zeros depend only on the pole and zero frequencies and on sigma / g, which sources of equal
+ * corner, sample rate and lowest frequency share (both sides of a charge amplifier, every run of one
+ * design): computed once for each, in a small table that is emptied when full.
+ */
+const factorCache = new Map<string, number[] | null>();
+const FACTOR_CACHE_SIZE = 64;
+
+function cachedSpectralFactorZeros(poleTheta: number[], zeroTheta: number[], ratio: number): number[] | null {
+  const key = `${ratio}|${poleTheta.join(',')}|${zeroTheta.join(',')}`;
+  let zeros = factorCache.get(key);
+  if (zeros === undefined) {
+    zeros = spectralFactorZeros(poleTheta, zeroTheta, ratio, 1);
+    if (factorCache.size >= FACTOR_CACHE_SIZE) factorCache.clear();
+    factorCache.set(key, zeros);
+  }
+  return zeros === null ? null : zeros.slice();
+}
+
+/**
  * The zeros (as theta, the zero at exp(-theta)) of the minimum-phase factor of
  * sigma^2 |A|^2 + g^2 |B|^2 with A = prod (1 - exp(-poleTheta) z^-1), B likewise of zeroTheta. On the
  * real axis z = exp(-phi) that Laurent polynomial is
  *   N(phi) = sigma^2 prod (1 - e^(phi - pole)) (1 - e^(-phi - pole)) + g^2 prod (same with zeros),
  * evaluated here as signs and logarithms (no overflow for large phi, no cancellation near z = 1).
  * It has as many zeros inside the unit circle as there are poles; the real positive ones show as sign
- * changes of N(phi), bracketed on a grid of 200 points per decade and refined by bisection. Returns
+ * changes of N(phi), bracketed on a grid of 100 points per decade and refined by bisection. Returns
  * null unless all of them are found that way.
  */
 function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: number, gain: number): number[] | null {
@@ -305,7 +324,7 @@ function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: nu
   const low = Math.log10(Math.min(...all)) - 2;
   const high = Math.log10(Math.max(...all)) + 2;
   const roots: number[] = [];
-  const steps = Math.ceil((high - low) * 200);
+  const steps = Math.ceil((high - low) * 100);
   let previousPhi = Math.pow(10, low);
   let previousSign = signAt(previousPhi);
   for (let step = 1; step <= steps; step++) {
