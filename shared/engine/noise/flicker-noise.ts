@@ -15,8 +15,13 @@
  * 1995; tens of thousands of taps to reach f0/1000): this needs one Gaussian and one multiply-add
  * per pole per sample.
  *
- * The filter runs in parallel form (partial fractions, all residues positive for interlaced
- * poles and zeros), whose state starts in its stationary distribution (drawn through the Cholesky
+ * The white floor is not a second generator: the filter G is the spectral factor of the whole
+ * target, |G|^2 = sigma^2 + g^2 |H|^2 (same poles, zeros moved), so one unit Gaussian per sample
+ * drives floor and slope together (see spectralFactorZeros; a separate floor remains the fallback).
+ *
+ * The filter runs in parallel form (partial fractions; all residues are positive for interlaced
+ * poles and zeros as in H, while the folded G may carry a pair of opposite signs near fs/2, where a
+ * pole and a zero almost cancel), whose state starts in its stationary distribution (drawn through the Cholesky
  * factor of the exact state covariance), so the first sample already has the long-run statistics:
  * no warm-up transient of the slow poles.
  */
