@@ -62,7 +62,6 @@ export class FlickerNoise {
   private readonly gaussian: GaussianSource;
   private readonly poles: Float64Array;
   private readonly residues: Float64Array;
-  private readonly direct: number;
   private readonly states: Float64Array;
   private driving = new Float64Array(0);
   /** True when the white floor is drawn as a second Gaussian per sample instead of folded into the filter. */
@@ -95,7 +94,9 @@ export class FlickerNoise {
     }
     const count = poleTheta.length;
     this.poleCount = count;
-    this.poles = Float64Array.from(poleTheta, (theta) => Math.exp(-theta));
+    // One more tap than poles: the direct term, run as a pole at z = 0 (its state is r d[n] itself).
+    this.poles = new Float64Array(count + 1);
+    for (let k = 0; k < count; k++) this.poles[k] = Math.exp(-poleTheta[k]);
 
     // Gain: the one-sided flicker density g^2 (2 / fs) |H(f)|^2 meets e^2 fc / f at the reference
     // frequency, less the design's known error there.
@@ -122,7 +123,7 @@ export class FlickerNoise {
     // Partial fractions G = direct + sum r_k / (1 - a_k z^-1); differences of exponentials through
     // expm1 keep their precision for the poles close to z = 1.
     const difference = (thetaA: number, thetaB: number): number => -Math.exp(-thetaA) * Math.expm1(thetaA - thetaB);
-    this.residues = new Float64Array(count);
+    this.residues = new Float64Array(count + 1);
     for (let k = 0; k < count; k++) {
       let residue = gain;
       for (let j = 0; j < count; j++) {
@@ -134,7 +135,7 @@ export class FlickerNoise {
     }
     let direct = gain;
     for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - shapeZeroTheta[k]);
-    this.direct = direct;
+    this.residues[count] = direct;
 
     // Stationary start: covariance P_ij = r_i r_j / (1 - a_i a_j). The factor L L^T of the matrix
     // 1 / (1 - a_i a_j) does not depend on the gain (which may be 0); state_i = r_i (L z)_i.
@@ -145,7 +146,7 @@ export class FlickerNoise {
     const factor = cholesky(covariance, count);
     const draws = new Float64Array(count);
     this.gaussian.fill(draws);
-    this.states = new Float64Array(count);
+    this.states = new Float64Array(count + 1);
     for (let i = 0; i < count; i++) {
       let value = 0;
       for (let j = 0; j <= i; j++) value += factor[i * count + j] * draws[j];
@@ -185,15 +186,14 @@ export class FlickerNoise {
   }
 
   /**
-   * Adds the shaping filter's response to `driving` onto signal: the direct term and the poles,
-   * four poles per pass over the block (their states in locals, independent recursions the
-   * processor can overlap), then the one to three poles left in one more pass.
+   * Adds the shaping filter's response to `driving` onto signal: the poles and the direct term (the
+   * last tap), four taps per pass over the block (their states in locals, independent recursions
+   * the processor can overlap), then the one to three taps left in one more pass.
    */
   private shape(driving: Float64Array, signal: Float64Array): void {
     const length = signal.length;
     const { poles, residues, states } = this;
-    const count = this.poleCount;
-    let direct = this.direct;
+    const count = poles.length;
     let k = 0;
     for (; k + 4 <= count; k += 4) {
       const a0 = poles[k];
@@ -214,17 +214,16 @@ export class FlickerNoise {
         x1 = a1 * x1 + r1 * d;
         x2 = a2 * x2 + r2 * d;
         x3 = a3 * x3 + r3 * d;
-        signal[n] += direct * d + (x0 + x1 + (x2 + x3));
+        signal[n] += x0 + x1 + (x2 + x3);
       }
       states[k] = x0;
       states[k + 1] = x1;
       states[k + 2] = x2;
       states[k + 3] = x3;
-      direct = 0;
     }
     const remaining = count - k;
     if (remaining >= 2) {
-      // Two or three poles left: one pass, a missing third as a zero pole (it stays at 0).
+      // Two or three taps left: one pass, a missing third as a zero tap (it stays at 0).
       const a0 = poles[k];
       const a1 = poles[k + 1];
       const a2 = remaining === 3 ? poles[k + 2] : 0;
@@ -239,7 +238,7 @@ export class FlickerNoise {
         x0 = a0 * x0 + r0 * d;
         x1 = a1 * x1 + r1 * d;
         x2 = a2 * x2 + r2 * d;
-        signal[n] += direct * d + (x0 + x1 + x2);
+        signal[n] += x0 + x1 + x2;
       }
       states[k] = x0;
       states[k + 1] = x1;
@@ -249,13 +248,10 @@ export class FlickerNoise {
       const r = residues[k];
       let state = states[k];
       for (let n = 0; n < length; n++) {
-        const d = driving[n];
-        state = a * state + r * d;
-        signal[n] += direct * d + state;
+        state = a * state + r * driving[n];
+        signal[n] += state;
       }
       states[k] = state;
-    } else if (direct !== 0) {
-      for (let n = 0; n < length; n++) signal[n] += direct * driving[n];
     }
   }
 }
