@@ -184,6 +184,6 @@ export class GaussianSource {
     // Wedge: a height uniform over the layer, accepted below the density.
     const low = HEIGHT[layer];
     const height = low + (random.nextUint32() + 0.5) * TWO_TO_MINUS_32 * (HEIGHT[layer + 1] - low);
-    return height < density(x) ? x : NaN;
+    return height < Math.exp(-0.5 * x * x) ? x : NaN;
   }
 }
