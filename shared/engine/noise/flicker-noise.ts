@@ -66,8 +66,9 @@ export class FlickerNoise {
   private driving = new Float64Array(0);
   /** True when the white floor is drawn as a second Gaussian per sample instead of folded into the filter. */
   readonly separateWhite: boolean;
-  private readonly poleTheta: Float64Array;
-  private readonly shapeZeroTheta: Float64Array;
+  private readonly poleTheta: number[];
+  private readonly shapeZeroTheta: number[];
+  private readonly sampleRate: number;
   private readonly shapeGain: number;
 
   constructor(spec: FlickerNoiseSpec, random: Xoshiro128StarStar) {
@@ -116,8 +117,9 @@ export class FlickerNoise {
       combined === null
         ? flickerGain
         : Math.sqrt((sigma * sigma + flickerGain * flickerGain * squaredMagnitude(poleTheta, zeroTheta, Math.PI)) / squaredMagnitude(poleTheta, shapeZeroTheta, Math.PI));
-    this.shapeZeroTheta = Float64Array.from(shapeZeroTheta);
-    this.poleTheta = Float64Array.from(poleTheta);
+    this.shapeZeroTheta = shapeZeroTheta;
+    this.poleTheta = poleTheta;
+    this.sampleRate = sampleRate;
     this.shapeGain = gain;
 
     // Partial fractions G = direct + sum r_k / (1 - a_k z^-1); differences of exponentials through
@@ -170,9 +172,10 @@ export class FlickerNoise {
   }
 
   /** One-sided density [unit^2/Hz] the generator produces at frequency f (0 < f <= fs/2), by its design. */
-  designedDensity(frequency: number, sampleRate: number): number {
+  designedDensity(frequency: number): number {
+    const sampleRate = this.sampleRate;
     const omega = (2 * Math.PI * frequency) / sampleRate;
-    const shaped = this.shapeGain * this.shapeGain * squaredMagnitude(Array.from(this.poleTheta), Array.from(this.shapeZeroTheta), omega);
+    const shaped = this.shapeGain * this.shapeGain * squaredMagnitude(this.poleTheta, this.shapeZeroTheta, omega);
     const white = this.separateWhite ? this.whiteStandardDeviation * this.whiteStandardDeviation : 0;
     return (2 / sampleRate) * (shaped + white);
   }
