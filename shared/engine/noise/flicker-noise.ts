@@ -17,7 +17,8 @@
  *
  * The white floor is not a second generator: the filter G is the spectral factor of the whole
  * target, |G|^2 = sigma^2 + g^2 |H|^2 (same poles, zeros moved), so one unit Gaussian per sample
- * drives floor and slope together (see spectralFactorZeros; a separate floor remains the fallback).
+ * drives floor and slope together (see spectralFactorZeros; the zeros are real, with one conjugate
+ * pair near fs/2 for corners above about 2.5e-3 fs; a separate floor remains the fallback).
  *
  * The filter runs in parallel form (partial fractions; all residues are positive for interlaced
  * poles and zeros as in H, while the folded G may carry a pair of opposite signs near fs/2, where a
@@ -68,6 +69,7 @@ export class FlickerNoise {
   readonly separateWhite: boolean;
   private readonly poleTheta: number[];
   private readonly shapeZeroTheta: number[];
+  private readonly shapePair: readonly [number, number] | null;
   private readonly sampleRate: number;
   private readonly shapeGain: number;
 
@@ -107,17 +109,24 @@ export class FlickerNoise {
 
     // White floor folded into the filter: sigma^2 + g^2 |H|^2 = |G|^2 for G with the same poles and
     // the zeros of sigma^2 |A|^2 + g^2 |B|^2 (its spectral factor), so one unit Gaussian per sample
-    // drives the whole noise. When those zeros cannot all be found as real roots (above a corner of
-    // about 2.5e-3 fs two of them leave the real axis), the floor is drawn as a second Gaussian.
+    // drives the whole noise. Above a corner of about 2.5e-3 fs two of those zeros leave the real
+    // axis as a conjugate pair; if they cannot be found, the floor is drawn as a second Gaussian.
     const sigma = this.whiteStandardDeviation;
-    const combined = flickerGain === 0 ? poleTheta.slice() : sigma === 0 ? zeroTheta.slice() : cachedSpectralFactorZeros(poleTheta, zeroTheta, sigma / flickerGain);
+    const combined: FactorZeros | null =
+      flickerGain === 0
+        ? { real: poleTheta.slice(), pair: null }
+        : sigma === 0
+          ? { real: zeroTheta.slice(), pair: null }
+          : cachedSpectralFactorZeros(poleTheta, zeroTheta, sigma / flickerGain);
     this.separateWhite = combined === null;
-    const shapeZeroTheta = combined ?? zeroTheta;
+    const shapeZeros: FactorZeros = combined ?? { real: zeroTheta, pair: null };
+    const shapeZeroTheta = shapeZeros.real;
     const gain =
       combined === null
         ? flickerGain
-        : Math.sqrt((sigma * sigma + flickerGain * flickerGain * squaredMagnitude(poleTheta, zeroTheta, Math.PI)) / squaredMagnitude(poleTheta, shapeZeroTheta, Math.PI));
+        : Math.sqrt((sigma * sigma + flickerGain * flickerGain * squaredMagnitude(poleTheta, zeroTheta, Math.PI)) / squaredMagnitude(poleTheta, shapeZeroTheta, Math.PI, shapeZeros.pair));
     this.shapeZeroTheta = shapeZeroTheta;
+    this.shapePair = shapeZeros.pair;
     this.poleTheta = poleTheta;
     this.sampleRate = sampleRate;
     this.shapeGain = gain;
@@ -130,13 +139,20 @@ export class FlickerNoise {
       let residue = gain;
       for (let j = 0; j < count; j++) {
         // (1 - b_j / a_k) and (1 - a_j / a_k), each written as (a_k - x) / a_k.
-        residue *= difference(poleTheta[k], shapeZeroTheta[j]) / this.poles[k];
+        if (j < shapeZeroTheta.length) residue *= difference(poleTheta[k], shapeZeroTheta[j]) / this.poles[k];
         if (j !== k) residue /= difference(poleTheta[k], poleTheta[j]) / this.poles[k];
+      }
+      if (shapeZeros.pair !== null) {
+        // (1 - beta / a)(1 - conj(beta) / a) of a conjugate pair of zeros.
+        const [re, im] = shapeZeros.pair;
+        const a = this.poles[k];
+        residue *= 1 - (2 * re) / a + (re * re + im * im) / (a * a);
       }
       this.residues[k] = residue;
     }
     let direct = gain;
-    for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - shapeZeroTheta[k]);
+    for (let k = 0; k < count; k++) direct *= Math.exp(poleTheta[k] - (k < shapeZeroTheta.length ? shapeZeroTheta[k] : 0));
+    if (shapeZeros.pair !== null) direct *= shapeZeros.pair[0] ** 2 + shapeZeros.pair[1] ** 2;
     this.residues[count] = direct;
 
     // Stationary start: covariance P_ij = r_i r_j / (1 - a_i a_j). The factor L L^T of the matrix
@@ -175,7 +191,7 @@ export class FlickerNoise {
   designedDensity(frequency: number): number {
     const sampleRate = this.sampleRate;
     const omega = (2 * Math.PI * frequency) / sampleRate;
-    const shaped = this.shapeGain * this.shapeGain * squaredMagnitude(this.poleTheta, this.shapeZeroTheta, omega);
+    const shaped = this.shapeGain * this.shapeGain * squaredMagnitude(this.poleTheta, this.shapeZeroTheta, omega, this.shapePair);
     const white = this.separateWhite ? this.whiteStandardDeviation * this.whiteStandardDeviation : 0;
     return (2 / sampleRate) * (shaped + white);
   }
@@ -260,7 +276,7 @@ export class FlickerNoise {
 }
 
 /** |H(e^{j omega})|^2 of prod (1 - b_k z^-1) / (1 - a_k z^-1), a = exp(-theta_pole), b = exp(-theta_zero). */
-function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: number): number {
+function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: number, pair: readonly [number, number] | null = null): number {
   // |1 - x e^{-j omega}|^2 = (1 - x)^2 + 4 x sin^2(omega / 2), without cancellation for x near 1.
   const halfSine = Math.sin(omega / 2);
   const term = (theta: number): number => {
@@ -269,7 +285,19 @@ function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: numbe
     return oneMinusX * oneMinusX + 4 * x * halfSine * halfSine;
   };
   let value = 1;
-  for (let k = 0; k < poleTheta.length; k++) value *= term(zeroTheta[k]) / term(poleTheta[k]);
+  for (let k = 0; k < poleTheta.length; k++) value *= (k < zeroTheta.length ? term(zeroTheta[k]) : 1) / term(poleTheta[k]);
+  if (pair !== null) {
+    // |1 - beta e^{-j omega}|^2 |1 - conj(beta) e^{-j omega}|^2 for beta = re + j im.
+    const [re, im] = pair;
+    const c = Math.cos(omega);
+    const s = Math.sin(omega);
+    const pairTerm = (b: number): number => {
+      const real = 1 - (re * c + b * s);
+      const imaginary = b * c - re * s;
+      return real * real + imaginary * imaginary;
+    };
+    value *= pairTerm(im) * pairTerm(-im);
+  }
   return value;
 }
 
@@ -278,10 +306,16 @@ function squaredMagnitude(poleTheta: number[], zeroTheta: number[], omega: numbe
  * corner, sample rate and lowest frequency share (both sides of a charge amplifier, every run of one
  * design): computed once for each, in a small table that is emptied when full.
  */
-const factorCache = new Map<string, number[] | null>();
+/** Zeros of the spectral factor: real ones as theta (the zero at exp(-theta)), and at most one conjugate pair (re, im). */
+interface FactorZeros {
+  real: number[];
+  pair: readonly [number, number] | null;
+}
+
+const factorCache = new Map<string, FactorZeros | null>();
 const FACTOR_CACHE_SIZE = 64;
 
-function cachedSpectralFactorZeros(poleTheta: number[], zeroTheta: number[], ratio: number): number[] | null {
+function cachedSpectralFactorZeros(poleTheta: number[], zeroTheta: number[], ratio: number): FactorZeros | null {
   const key = `${ratio}|${poleTheta.join(',')}|${zeroTheta.join(',')}`;
   let zeros = factorCache.get(key);
   if (zeros === undefined) {
@@ -289,7 +323,7 @@ function cachedSpectralFactorZeros(poleTheta: number[], zeroTheta: number[], rat
     if (factorCache.size >= FACTOR_CACHE_SIZE) factorCache.clear();
     factorCache.set(key, zeros);
   }
-  return zeros === null ? null : zeros.slice();
+  return zeros === null ? null : { real: zeros.real.slice(), pair: zeros.pair };
 }
 
 /**
@@ -299,10 +333,11 @@ function cachedSpectralFactorZeros(poleTheta: number[], zeroTheta: number[], rat
  *   N(phi) = sigma^2 prod (1 - e^(phi - pole)) (1 - e^(-phi - pole)) + g^2 prod (same with zeros),
  * evaluated here as signs and logarithms (no overflow for large phi, no cancellation near z = 1).
  * It has as many zeros inside the unit circle as there are poles; the real positive ones show as sign
- * changes of N(phi), bracketed on a grid of 100 points per decade and refined by bisection. Returns
- * null unless all of them are found that way.
+ * changes of N(phi), bracketed on a grid of 100 points per decade and refined by bisection. When
+ * exactly two are missing, they are the conjugate pair of the remaining quadratic factor (below).
+ * Returns null in any other case (the caller then keeps the white floor separate).
  */
-function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: number, gain: number): number[] | null {
+function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: number, gain: number): FactorZeros | null {
   const logFactors = (phi: number, thetas: number[], scale: number): { sign: number; log: number } => {
     let sign = 1;
     let log = 2 * Math.log(scale);
@@ -349,7 +384,56 @@ function spectralFactorZeros(poleTheta: number[], zeroTheta: number[], sigma: nu
     previousPhi = phi;
     previousSign = sign;
   }
-  return roots.length === poleTheta.length ? roots : null;
+  const count = poleTheta.length;
+  if (roots.length === count) return { real: roots, pair: null };
+  if (roots.length !== count - 2) return null;
+  // Two zeros left: in w = z + 1/z the polynomial is
+  //   P(w) = sigma^2 prod (1 + a^2 - a w) + g^2 prod (1 + b^2 - b w) = C prod (w - w_j) (w^2 + p w + q),
+  // w_j = beta_j + 1/beta_j for the real zeros found. The quadratic follows from P at w = 0 and
+  // w = -2, where every factor is positive (no cancellation), and gives the last pair.
+  const evaluate = (w: number, thetas: number[], scale: number): number => {
+    let value = scale * scale;
+    for (const theta of thetas) {
+      const x = Math.exp(-theta);
+      value *= 1 + x * x - x * w;
+    }
+    return value;
+  };
+  let leading = sigma * sigma;
+  let leadingZeros = gain * gain;
+  for (let k = 0; k < count; k++) {
+    leading *= -Math.exp(-poleTheta[k]);
+    leadingZeros *= -Math.exp(-zeroTheta[k]);
+  }
+  leading += leadingZeros;
+  const remainder = (w: number): number => {
+    let known = leading;
+    for (const phi of roots) known *= w - (Math.exp(-phi) + Math.exp(phi));
+    return (evaluate(w, poleTheta, sigma) + evaluate(w, zeroTheta, gain)) / known;
+  };
+  const q = remainder(0);
+  const p = (4 + q - remainder(-2)) / 2;
+  const discriminant = p * p - 4 * q;
+  if (!(discriminant < 0)) return null;
+  // w = mu +/- j nu; beta solves beta^2 - w beta + 1 = 0, the root inside the unit circle.
+  const mu = -p / 2;
+  const nu = Math.sqrt(-discriminant) / 2;
+  // sqrt(w^2 - 4) in complex arithmetic, principal branch.
+  const squareRe = mu * mu - nu * nu - 4;
+  const squareIm = 2 * mu * nu;
+  const modulus = Math.hypot(squareRe, squareIm);
+  let rootRe = Math.sqrt((modulus + squareRe) / 2);
+  let rootIm = Math.sign(squareIm) * Math.sqrt((modulus - squareRe) / 2);
+  let betaRe = (mu - rootRe) / 2;
+  let betaIm = (nu - rootIm) / 2;
+  if (betaRe * betaRe + betaIm * betaIm >= 1) {
+    rootRe = -rootRe;
+    rootIm = -rootIm;
+    betaRe = (mu - rootRe) / 2;
+    betaIm = (nu - rootIm) / 2;
+  }
+  if (!(betaRe * betaRe + betaIm * betaIm < 1)) return null;
+  return { real: roots, pair: [betaRe, Math.abs(betaIm)] };
 }
 
 /** Lower-triangular L with L L^T = matrix (size x size, row-major). */
