@@ -33,6 +33,19 @@ function summaries(db: Db) {
       join.onRef('latest.design_id', '=', 'designs.id').onRef('latest.number', '=', 'designs.latest_version'),
     )
     .innerJoin('users as author', 'author.id', 'latest.author_id')
+    // The most recent review request of the design (any version), one index lookup per design.
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom('reviews')
+          .select(['reviews.state as review_state', 'reviews.version_number as review_version'])
+          .whereRef('reviews.design_id', '=', 'designs.id')
+          .orderBy('reviews.created_at', 'desc')
+          .orderBy('reviews.id', 'desc')
+          .limit(1)
+          .as('latest_review'),
+      (join) => join.onTrue(),
+    )
     .select([
       'designs.id',
       'designs.name',
@@ -51,6 +64,8 @@ function summaries(db: Db) {
       'author.id as author_id',
       'author.display_name as author_name',
       'author.email as author_email',
+      'latest_review.review_state',
+      'latest_review.review_version',
     ]);
 }
 
@@ -74,6 +89,7 @@ function toSummary(row: SummaryRow): DesignSummary {
       engineVersion: row.engine_version,
       figures: row.figures,
     },
+    latestReview: row.review_state !== null && row.review_version !== null ? { state: row.review_state, versionNumber: row.review_version } : null,
   };
 }
 

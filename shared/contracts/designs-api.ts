@@ -52,6 +52,13 @@ export const designSummarySchema = z
     createdAt: z.string(),
     updatedAt: z.string().describe('Time of the latest change (version saved, renamed, archived)'),
     latest: versionSummarySchema.describe('The latest version'),
+    latestReview: z
+      .object({
+        state: z.enum(['pending', 'approved', 'changes_requested']),
+        versionNumber: z.number().int(),
+      })
+      .nullable()
+      .describe('The most recent review request of any of its versions, with its state; null when none was shared'),
   })
   .meta({ id: 'DesignSummary' });
 export type DesignSummary = z.infer<typeof designSummarySchema>;

@@ -58,6 +58,17 @@ function linkIn(text: string): string {
 }
 
 describe('the review loop', () => {
+  it('reports each design\'s latest review in the designs list: none, then pending, then the decision', async () => {
+    const latestReview = async () => (await request(testApp.app).get('/api/designs').set(designer)).body.items.find((item: { id: string }) => item.id === designId).latestReview;
+    expect(await latestReview()).toBeNull();
+    const share = await request(testApp.app).post(`/api/designs/${designId}/versions/1/reviews`).set(designer).send({ reviewerEmail: 'rita@example.com' });
+    expect(share.status).toBe(201);
+    expect(await latestReview()).toEqual({ state: 'pending', versionNumber: 1 });
+    expect((await request(testApp.app).post(`/api/reviews/${share.body.id}/decision`).set(reviewer).send({ decision: 'changes_requested', note: 'Corner too low' })).status).toBe(200);
+    expect(await latestReview()).toEqual({ state: 'changes_requested', versionNumber: 1 });
+    expect((await request(testApp.app).get(`/api/designs/${designId}`).set(designer)).body.latestReview).toEqual({ state: 'changes_requested', versionNumber: 1 });
+  });
+
   it('shares with an existing reviewer, who comments, replies are threaded, and a decision mails the designer', async () => {
     const share = await request(testApp.app).post(`/api/designs/${designId}/versions/1/reviews`).set(designer).send({ reviewerEmail: 'Rita@Example.com', note: 'Please check the ripple' });
     expect(share.status).toBe(201);

@@ -1,7 +1,7 @@
 /**
  * The load benchmark's baseline: a bare Express 5 app with one pg pool and one route doing the
  * designs list query as the API runs it for a designer (their designs with owner, latest version and
- * its author, newest first, one page), nothing else: no session, no validation, no count.
+ * its author, the design's latest review, newest first, one page), nothing else: no session, no validation, no count.
  * Started by tools/bench/load.ts with PORT, DATABASE_URL, OWNER_ID and PAGE_SIZE.
  */
 import express from 'express';
@@ -16,11 +16,16 @@ const LIST_QUERY = `
   select d.id, d.name, d.archived, d.latest_version, d.created_at, d.updated_at,
          owner.id as owner_id, owner.display_name as owner_name, owner.email as owner_email,
          latest.message, latest.created_at as version_created_at, latest.format_version, latest.engine_version, latest.figures,
-         author.id as author_id, author.display_name as author_name, author.email as author_email
+         author.id as author_id, author.display_name as author_name, author.email as author_email,
+         latest_review.review_state, latest_review.review_version
     from designs d
     join users owner on owner.id = d.owner_id
     join design_versions latest on latest.design_id = d.id and latest.number = d.latest_version
     join users author on author.id = latest.author_id
+    left join lateral (
+      select r.state as review_state, r.version_number as review_version
+        from reviews r where r.design_id = d.id order by r.created_at desc, r.id desc limit 1
+    ) latest_review on true
    where d.owner_id = $1 and d.archived = false
    order by d.updated_at desc, d.id
    limit $2 offset 0`;

@@ -13,8 +13,6 @@ import { MatMenuHarness } from '@angular/material/menu/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import type { DesignList, DesignSummary, KeyFigures } from '@shared/contracts/designs-api';
 import { Designs } from './designs';
-import { of } from 'rxjs';
-import { ReviewsApi } from '../reviews/reviews-api';
 
 const person = { id: '00000000-0000-4000-8000-000000000002', displayName: 'Demo Designer', email: 'designer@example.com' };
 
@@ -49,6 +47,7 @@ function design(n: number, name: string, keyFigures: KeyFigures, archived = fals
       engineVersion: '0.1.0',
       figures: keyFigures,
     },
+    latestReview: n === 1 ? { state: 'changes_requested', versionNumber: 2 } : null,
   };
 }
 
@@ -76,8 +75,7 @@ describe('Designs', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [Designs],
-      // The review state chip of each row has its own spec; here it finds no reviews.
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting(), { provide: ReviewsApi, useValue: { ofDesign: () => of([]) } }],
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
     });
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(Designs);
@@ -134,6 +132,17 @@ describe('Designs', () => {
     expect(flow.querySelector('.clipping')?.textContent).toContain('125 % at g1');
     const link = pressure.querySelector<HTMLAnchorElement>('a[data-testid="design-link"]');
     expect(link?.getAttribute('href')).toBe(`/designs/${answer.items[0].id}`);
+  });
+
+  it('should show each design\'s latest review from the list answer, with no request per row', async () => {
+    (await nextList()).flush(answer);
+    await fixture.whenStable();
+    const [pressure, flow] = rows();
+    expect(pressure.querySelector('qb-design-review-state [data-state]')?.getAttribute('data-state')).toBe('changes_requested');
+    expect(pressure.querySelector('qb-design-review-state')?.textContent).toContain('v2');
+    expect(flow.querySelector('qb-design-review-state')?.textContent?.trim()).toBe('');
+    // afterEach's verify() fails on any request left unanswered, such as one per row for its reviews.
+    http.expectNone((request) => request.url.includes('/reviews'));
   });
 
   it('should send the sort column and the archive filter to the server', async () => {

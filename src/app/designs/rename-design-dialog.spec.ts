@@ -35,6 +35,7 @@ const design: DesignSummary = {
       findings: { error: 0, warning: 0, note: 0 },
     },
   },
+  latestReview: null,
 };
 const url = `/api/designs/${design.id}`;
 

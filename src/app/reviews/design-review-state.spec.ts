@@ -1,5 +1,3 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { Review } from '@shared/contracts/reviews-api';
 import { DesignReviewState, latestReviewByVersion } from './design-review-state';
@@ -26,27 +24,21 @@ function review(versionNumber: number, state: Review['state'], createdAt: string
 
 describe('DesignReviewState', () => {
   beforeEach(() => {
-    TestBed.configureTestingModule({ imports: [DesignReviewState], providers: [provideHttpClient(), provideHttpClientTesting()] });
+    TestBed.configureTestingModule({ imports: [DesignReviewState] });
   });
 
-  it('should show the state and version of the most recent review of the design', async () => {
+  it('should show the state and version of the design\'s latest review', async () => {
     const fixture = TestBed.createComponent(DesignReviewState);
-    fixture.componentRef.setInput('designId', designId);
-    fixture.detectChanges();
-    TestBed.inject(HttpTestingController)
-      .expectOne(`/api/designs/${designId}/reviews`)
-      .flush({ items: [review(1, 'changes_requested', '2026-03-01T10:00:00.000Z'), review(2, 'approved', '2026-03-02T10:00:00.000Z')] });
+    fixture.componentRef.setInput('review', { state: 'approved', versionNumber: 2 });
     await fixture.whenStable();
     const element = fixture.nativeElement as HTMLElement;
     expect(element.querySelector('[data-state]')?.getAttribute('data-state')).toBe('approved');
     expect(element.textContent).toContain('v2');
   });
 
-  it('should show nothing when the reviews cannot be listed', async () => {
+  it('should show nothing when no version was shared', async () => {
     const fixture = TestBed.createComponent(DesignReviewState);
-    fixture.componentRef.setInput('designId', designId);
-    fixture.detectChanges();
-    TestBed.inject(HttpTestingController).expectOne(`/api/designs/${designId}/reviews`).flush({ status: 404, title: 'Not found', detail: 'No design', errors: [] }, { status: 404, statusText: 'Not Found' });
+    fixture.componentRef.setInput('review', null);
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent?.trim()).toBe('');
   });

@@ -1,9 +1,7 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import type { DesignSummary } from '@shared/contracts/designs-api';
 import type { Review } from '@shared/contracts/reviews-api';
-import { catchError, of } from 'rxjs';
 import { ReviewStateChip } from './review-state-chip';
-import { ReviewsApi } from './reviews-api';
 
 /** The latest review of each version (by request time), from a design's reviews. */
 export function latestReviewByVersion(reviews: readonly Review[]): Map<number, Review> {
@@ -20,9 +18,9 @@ export function latestReviewByVersion(reviews: readonly Review[]): Map<number, R
   selector: 'qb-design-review-state',
   imports: [ReviewStateChip],
   template: `
-    @if (latest(); as review) {
-      <qb-review-state-chip [state]="review.state" [attr.title]="'Review of version ' + review.versionNumber" />
-      <span class="version">v{{ review.versionNumber }}</span>
+    @if (review(); as latest) {
+      <qb-review-state-chip [state]="latest.state" [attr.title]="'Review of version ' + latest.versionNumber" />
+      <span class="version">v{{ latest.versionNumber }}</span>
     }
   `,
   styles: `
@@ -39,14 +37,6 @@ export function latestReviewByVersion(reviews: readonly Review[]): Map<number, R
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class DesignReviewState {
-  private readonly api = inject(ReviewsApi);
-
-  readonly designId = input.required<string>();
-
-  // A design the user may not list the reviews of shows no chip rather than an error in a table cell.
-  private readonly reviews = rxResource({ params: () => this.designId(), stream: ({ params }) => this.api.ofDesign(params).pipe(catchError(() => of([]))) });
-  protected readonly latest = computed(() => {
-    const reviews = this.reviews.hasValue() ? this.reviews.value() : [];
-    return reviews.reduce<Review | null>((newest, review) => (newest === null || review.createdAt > newest.createdAt ? review : newest), null);
-  });
+  /** The design's latest review as the designs list reports it (no request of its own per row). */
+  readonly review = input.required<DesignSummary['latestReview']>();
 }
