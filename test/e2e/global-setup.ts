@@ -2,23 +2,11 @@
 // serving the built app on a free loopback port. The suites find it in E2E_BASE_URL.
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import { startTestDatabase, stopTestDatabase } from '../support/test-database.mjs';
-import { waitForHealth } from '../../tools/lib/process.mjs';
+import { freePort, waitForHealth } from '../../tools/lib/process.mjs';
 
 const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      probe.close(() => (typeof address === 'object' && address ? resolve(address.port) : reject(new Error('no port'))));
-    });
-  });
-}
 
 export default async function setup(): Promise<() => Promise<void>> {
   if (!existsSync(`${projectRoot}dist/quietbridge/browser/index.html`)) {

@@ -2,7 +2,7 @@
 // process shows: surviving a database outage, and a graceful shutdown on SIGTERM.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { freePort } from '../../tools/bench/processes';
+import { freePort } from '../../tools/lib/process.mjs';
 
 const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
 

@@ -1,21 +1,14 @@
 // Child processes of the benchmark and outage scripts: started with the project's loader, their
 // stderr passed through with a label, and all stopped at the end (SIGTERM, SIGKILL after 5 s).
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
 import { fileURLToPath } from 'node:url';
+import { freePort } from '../lib/process.mjs';
 
 export const projectRoot = fileURLToPath(new URL('../..', import.meta.url));
 
 const children: ChildProcess[] = [];
 
-/** A loopback port nobody listens on right now. */
-export async function freePort(): Promise<number> {
-  const probe = createServer();
-  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
-  const { port } = probe.address() as { port: number };
-  await new Promise((resolve) => probe.close(resolve));
-  return port;
-}
+export { freePort };
 
 export function startScript(label: string, script: string, env: Record<string, string>, nodeArgs: string[] = []): ChildProcess {
   const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'ignore', 'pipe'] });

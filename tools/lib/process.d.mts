@@ -12,3 +12,5 @@ export function nodeScript(script: string, args?: string[], env?: NodeJS.Process
 export function ng(args: string[], env?: NodeJS.ProcessEnv): number;
 export function startServer(env: NodeJS.ProcessEnv, options?: { watch?: boolean }): ChildProcess;
 export function waitForHealth(url: string, child: ChildProcess | null, timeoutMs?: number): Promise<unknown>;
+/** A free loopback port below the ephemeral range (never taken by an outgoing connection's source port). */
+export function freePort(): Promise<number>;

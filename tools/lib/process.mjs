@@ -1,6 +1,7 @@
 // Helpers for the project's own commands (start, test, dev). No dependencies: they run before `npm ci`.
 import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, statSync } from 'node:fs';
+import { createServer } from 'node:net';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -80,4 +81,39 @@ export async function waitForHealth(url, child, timeoutMs = 60_000) {
     await new Promise((resolvePoll) => setTimeout(resolvePoll, 250));
   }
   throw new Error(`the server did not report healthy at ${url}/api/health within ${timeoutMs / 1000} s`);
+}
+
+/** The range the kernel takes the source ports of outgoing connections from (Linux), or its default. */
+function ephemeralRange() {
+  try {
+    const [low, high] = readFileSync('/proc/sys/net/ipv4/ip_local_port_range', 'utf8').trim().split(/\s+/).map(Number);
+    if (low && high) return [low, high];
+  } catch {
+    // not Linux: the IANA dynamic range
+  }
+  return [49152, 65535];
+}
+
+/**
+ * A loopback port nobody listens on right now, chosen below the ephemeral range: a port the kernel
+ * handed out for listen(0) can be taken a moment later as the source port of an outgoing connection
+ * (a database client, say) before the process it was meant for binds it.
+ */
+export async function freePort() {
+  const [ephemeralLow] = ephemeralRange();
+  const low = 10000;
+  const high = Math.max(low + 1000, ephemeralLow - 1);
+  for (let attempt = 0; attempt < 200; attempt += 1) {
+    const port = low + Math.floor(Math.random() * (high - low));
+    const probe = createServer();
+    const free = await new Promise((resolve) => {
+      probe.once('error', () => resolve(false));
+      probe.listen(port, '127.0.0.1', () => resolve(true));
+    });
+    if (free) {
+      await new Promise((resolve) => probe.close(resolve));
+      return port;
+    }
+  }
+  throw new Error('no free loopback port found below the ephemeral range');
 }
