@@ -2,7 +2,7 @@ import { sql, type Kysely, type Transaction } from 'kysely';
 import type { z } from 'zod';
 import type { DesignSummary, KeyFigures, listDesignsQuerySchema, Version, VersionSummary } from '@shared/contracts/designs-api';
 import { recordEvent } from '../audit/audit.repository';
-import type { Database } from '../db/database';
+import type { Database, ReviewState } from '../db/database';
 
 type Db = Kysely<Database> | Transaction<Database>;
 
@@ -19,6 +19,13 @@ const sortColumns = {
   createdAt: 'designs.created_at',
   latestVersion: 'designs.latest_version',
 } as const;
+/** The same columns as the page subquery of the list names them. */
+const pageSortColumns = {
+  name: 'page.name',
+  updatedAt: 'page.updated_at',
+  createdAt: 'page.created_at',
+  latestVersion: 'page.latest_version',
+} as const;
 
 function iso(value: Date | string): string {
   return new Date(value).toISOString();
@@ -33,19 +40,6 @@ function summaries(db: Db) {
       join.onRef('latest.design_id', '=', 'designs.id').onRef('latest.number', '=', 'designs.latest_version'),
     )
     .innerJoin('users as author', 'author.id', 'latest.author_id')
-    // The most recent review request of the design (any version), one index lookup per design.
-    .leftJoinLateral(
-      (eb) =>
-        eb
-          .selectFrom('reviews')
-          .select(['reviews.state as review_state', 'reviews.version_number as review_version'])
-          .whereRef('reviews.design_id', '=', 'designs.id')
-          .orderBy('reviews.created_at', 'desc')
-          .orderBy('reviews.id', 'desc')
-          .limit(1)
-          .as('latest_review'),
-      (join) => join.onTrue(),
-    )
     .select([
       'designs.id',
       'designs.name',
@@ -64,12 +58,25 @@ function summaries(db: Db) {
       'author.id as author_id',
       'author.display_name as author_name',
       'author.email as author_email',
-      'latest_review.review_state',
-      'latest_review.review_version',
     ]);
 }
 
-type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaries>['executeTakeFirstOrThrow']>>;
+type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaries>['executeTakeFirstOrThrow']>> & {
+  review_state: ReviewState | null;
+  review_version: number | null;
+};
+
+/** The most recent review request of the design whose id is `designId` (any version): one index lookup. */
+function latestReviewOf(db: Db, designId: 'designs.id' | 'page.id') {
+  return db
+    .selectFrom('reviews')
+    .select(['reviews.state as review_state', 'reviews.version_number as review_version'])
+    .where('reviews.design_id', '=', sql.ref<string>(designId))
+    .orderBy('reviews.created_at', 'desc')
+    .orderBy('reviews.id', 'desc')
+    .limit(1)
+    .as('latest_review');
+}
 
 function toSummary(row: SummaryRow): DesignSummary {
   return {
@@ -106,20 +113,33 @@ export async function listDesigns(db: Db, scope: DesignScope, query: z.output<ty
     const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     base = base.where('designs.name', 'ilike', pattern);
   }
-  // The total comes with the page (one query, not two); only a page past the end needs a count of its own.
-  const rows = await base
+  // The total comes with the page (one query, not two); only a page past the end needs a count of its
+  // own. The latest review is looked up for the rows of the page only, after the limit.
+  const page = base
     .select(sql<string>`count(*) over ()`.as('total'))
     .orderBy(sortColumns[query.sort], query.order)
     .orderBy('designs.id')
     .limit(query.pageSize)
     .offset(query.page * query.pageSize)
+    .as('page');
+  const rows = await db
+    .selectFrom(page)
+    .leftJoinLateral(latestReviewOf(db, 'page.id'), (join) => join.onTrue())
+    .selectAll('page')
+    .select(['latest_review.review_state', 'latest_review.review_version'])
+    .orderBy(pageSortColumns[query.sort], query.order)
+    .orderBy('page.id')
     .execute();
   const total = rows.length > 0 ? rows[0]!.total : (await base.clearSelect().select((eb) => eb.fn.countAll<string>().as('total')).executeTakeFirstOrThrow()).total;
   return { items: rows.map(toSummary), total: Number(total) };
 }
 
 export async function findDesign(db: Db, scope: DesignScope, id: string): Promise<DesignSummary | undefined> {
-  const row = await scoped(summaries(db), scope).where('designs.id', '=', id).executeTakeFirst();
+  const row = await scoped(summaries(db), scope)
+    .leftJoinLateral(latestReviewOf(db, 'designs.id'), (join) => join.onTrue())
+    .select(['latest_review.review_state', 'latest_review.review_version'])
+    .where('designs.id', '=', id)
+    .executeTakeFirst();
   return row ? toSummary(row) : undefined;
 }
 
