@@ -8,6 +8,9 @@ export const CSRF_COOKIE = 'qb_csrf';
 /** Header a cookie-authenticated state-changing request must carry, equal to the CSRF cookie. */
 export const CSRF_HEADER = 'X-CSRF-Token';
 
+/** Longest design name the API accepts, counted after trimming. */
+export const DESIGN_NAME_MAX_LENGTH = 200;
+
 /** Shortest password the API accepts. */
 export const PASSWORD_MIN_LENGTH = 10;
 

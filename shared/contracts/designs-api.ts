@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { DESIGN_NAME_MAX_LENGTH } from './constants';
 
 /** The figures kept with every saved version, computed by the shared engine on save (SI units). */
 export const keyFiguresSchema = z
@@ -67,7 +68,7 @@ const designNameSchema = z
   .string({ error: (issue) => (issue.input === undefined ? 'Name is required' : 'Name must be text') })
   .trim()
   .min(1, 'Name is required')
-  .max(200, 'Name must be at most 200 characters');
+  .max(DESIGN_NAME_MAX_LENGTH, `Name must be at most ${DESIGN_NAME_MAX_LENGTH} characters`);
 
 const messageSchema = z
   .string({ error: 'Message must be text' })

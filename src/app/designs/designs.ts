@@ -29,6 +29,7 @@ import {
 } from '@angular/material/table';
 import { MatTooltip } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
+import { DESIGN_NAME_MAX_LENGTH } from '@shared/contracts/constants';
 import type { DesignSummary } from '@shared/contracts/designs-api';
 import type { FieldError } from '@shared/contracts/problem';
 import { debounceTime, distinctUntilChanged, firstValueFrom } from 'rxjs';
@@ -173,7 +174,7 @@ export class Designs {
   protected duplicate(design: DesignSummary): void {
     this.whileBusy(design.id, async () => {
       const version = await firstValueFrom(this.designs.version(design.id, design.latestVersion));
-      const name = `Copy of ${design.name}`.slice(0, 200);
+      const name = `Copy of ${design.name}`.slice(0, DESIGN_NAME_MAX_LENGTH);
       const created = await firstValueFrom(
         this.designs.create({ name, document: { ...version.document, name }, message: `Duplicated from “${design.name}” version ${version.number}` }),
       );

@@ -5,6 +5,7 @@ import { MatDialogActions, MatDialogClose, MatDialogContent, MatDialogRef, MatDi
 import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import { DESIGN_NAME_MAX_LENGTH } from '@shared/contracts/constants';
 import type { DesignSummary } from '@shared/contracts/designs-api';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
@@ -37,9 +38,10 @@ export class NewDesignDialog {
   private readonly dialogRef = inject<MatDialogRef<NewDesignDialog, DesignSummary>>(MatDialogRef);
 
   protected readonly templates = designTemplates;
+  protected readonly maxLength = DESIGN_NAME_MAX_LENGTH;
   protected readonly form = new FormGroup({
     template: new FormControl(designTemplates[0].key, { nonNullable: true }),
-    name: new FormControl(designTemplates[0].document.name, { nonNullable: true, validators: [Validators.required, Validators.maxLength(200)] }),
+    name: new FormControl(designTemplates[0].document.name, { nonNullable: true, validators: [Validators.required, Validators.maxLength(DESIGN_NAME_MAX_LENGTH)] }),
   });
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);

@@ -7,15 +7,13 @@ import { MAT_DIALOG_DATA, MatDialogActions, MatDialogClose, MatDialogContent, Ma
 import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { DesignSummary } from '@shared/contracts/designs-api';
+import { DESIGN_NAME_MAX_LENGTH } from '@shared/contracts/constants';
 import { applyFieldErrors } from '../core/forms/apply-field-errors';
 import { problemFrom } from '../core/http/api-problem';
 import { EditedErrorStateMatcher } from '../workbench/edited-error-state';
 import { DesignsApi } from './designs-api';
 
-/** Longest design name the API takes, counted after trimming (the contract's design name rule). */
-export const DESIGN_NAME_MAX_LENGTH = 200;
-
-/** The contract's name rule on the trimmed text: not empty, at most 200 characters. */
+/** The contract's name rule on the trimmed text: not empty, at most DESIGN_NAME_MAX_LENGTH characters. */
 function designName(control: AbstractControl<string>): ValidationErrors | null {
   const name = control.value.trim();
   if (name === '') return { required: true };
